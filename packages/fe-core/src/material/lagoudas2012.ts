@@ -1,0 +1,529 @@
+/**
+ * Phase-fraction SMA model of Lagoudas et al. (2012, Int. J. Plasticity 32–33:155–183), 3D,
+ * small strain, isotropic elasticity with one Poisson ratio and Reuss-mixed compliance.
+ *
+ * State per point (14 doubles): εᵗ (6, Kelvin–Mandel), ξ, εᵗʳ (6), ξʳ — the transformation strain,
+ * the martensite fraction and the reversal memory (values at the end of the last forward step).
+ *
+ * Return map: backward Euler (closest point). For a fixed ξ the strain equation
+ *   S(ξ):σ + εᵗ_n + (ξ − ξ_n)Λ(σ) + α(ξ)(T − T_ref)1 = ε
+ * is solved exactly: in the forward direction Λ ∥ σ' and σ' ∥ the deviator of the known part of the
+ * strain, so it reduces to one monotone scalar equation for σ̄; in the reverse direction Λ is the
+ * frozen εᵗʳ/ξʳ and σ is explicit. The transformation condition Φ(σ(ξ), ξ) = 0 is then a scalar
+ * equation in ξ, solved by Newton inside a bracket with bisection fallback, so ξ never leaves
+ * [0, 1] by clamping and a transformation that completes inside the increment is detected by
+ * evaluating Φ at the bound. The consistent tangent follows from the same linearisation.
+ *
+ * Deviation from the paper, on purpose: the forward direction uses σ̄_r = √(σ̄² + σ_r²) in place of
+ * σ̄ in the denominator, Λ = (3/2)H_cur σ'/σ̄_r, with σ_r = 0.1 MPa. It keeps Λ and the tangent
+ * finite when martensite forms at vanishing stress (stress-free cooling); the change is
+ * O((σ_r/σ̄)²), below 1e-5 relative for σ̄ > 25 MPa.
+ */
+import type { Material, MaterialPointInput, MaterialPointOutput, MaterialReport } from './types';
+import { calibrateLagoudas2012, type Lagoudas2012Constants, type Lagoudas2012Measured } from './lagoudas2012Calibration';
+
+export { calibrateLagoudas2012 } from './lagoudas2012Calibration';
+export type { Lagoudas2012Constants, Lagoudas2012Measured } from './lagoudas2012Calibration';
+
+const ET = 0;
+const XI = 6;
+const ETR = 7;
+const XIR = 13;
+export const LAGOUDAS2012_STATE_SIZE = 14;
+
+/** Smoothing of ξ^n for n < 1 (infinite slope at 0): ξ^n → ξ(ξ + δ)^(n−1). */
+const SMOOTH = 1e-5;
+const SQ32 = Math.sqrt(1.5);
+const MAX_OUTER = 200;
+const MAX_INNER = 100;
+
+function pw(x: number, n: number): number {
+  if (x <= 0) return 0;
+  return n === 1 ? x : x * Math.pow(x + SMOOTH, n - 1);
+}
+
+function pwSlope(x: number, n: number): number {
+  if (n === 1) return 1;
+  const y = Math.max(x, 0);
+  return Math.pow(y + SMOOTH, n - 1) + (n - 1) * y * Math.pow(y + SMOOTH, n - 2);
+}
+
+type Direction = 'forward' | 'reverse';
+
+export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
+  readonly model = 'lagoudas2012';
+  readonly stateSize = LAGOUDAS2012_STATE_SIZE;
+
+  // Base state of the current phase (start of increment, or the intermediate state after a
+  // reverse phase that is followed by a forward one).
+  private readonly etB = new Float64Array(6);
+  private readonly etrB = new Float64Array(6);
+  private xiB = 0;
+  private xirB = 0;
+  private readonly lamR = new Float64Array(6);
+
+  // Loading of the current evaluation.
+  private readonly eps = new Float64Array(6);
+  private temp = 0;
+
+  // Results of the last evaluation at some ξ.
+  private readonly sig = new Float64Array(6);
+  private readonly lam = new Float64Array(6);
+  private readonly nhat = new Float64Array(6);
+  private readonly estar = new Float64Array(6);
+  private readonly nVec = new Float64Array(6);
+  private readonly phiS = new Float64Array(6);
+  private readonly xiN = new Float64Array(6);
+  private readonly xiPhi = new Float64Array(6);
+  private sC = 0;
+  private aC = 0;
+  private bC = 0;
+  private denC = 0;
+  private failure = '';
+
+  /** Φ tolerance: scaled by the size of the critical driving force and hardening. */
+  private readonly tolPhi: number;
+
+  constructor(readonly params: Lagoudas2012Constants) {
+    this.tolPhi = 1e-11 * (params.Y0 + Math.abs(params.a1) + Math.abs(params.a2));
+  }
+
+  initState(state: Float64Array, offset: number, temperature: number): void {
+    for (let i = 0; i < this.stateSize; i++) state[offset + i] = 0;
+    const xi = this.stressFreeFraction(temperature);
+    state[offset + XI] = xi;
+    state[offset + XIR] = xi;
+  }
+
+  report(state: Float64Array, offset: number, out: MaterialReport): void {
+    out.xi = state[offset + XI];
+    out.eqPlastic = 0;
+    for (let i = 0; i < 6; i++) out.transformationStrain[i] = state[offset + ET + i];
+  }
+
+  // ---------------------------------------------------------------- hardening functions
+  fFwd(xi: number): number {
+    const p = this.params;
+    return 0.5 * p.a1 * (1 + pw(xi, p.n1) - pw(1 - xi, p.n2)) + p.a3;
+  }
+  private fFwdSlope(xi: number): number {
+    const p = this.params;
+    return 0.5 * p.a1 * (pwSlope(xi, p.n1) + pwSlope(1 - xi, p.n2));
+  }
+  fRev(xi: number): number {
+    const p = this.params;
+    return 0.5 * p.a2 * (1 + pw(xi, p.n3) - pw(1 - xi, p.n4)) - p.a3;
+  }
+  private fRevSlope(xi: number): number {
+    const p = this.params;
+    return 0.5 * p.a2 * (pwSlope(xi, p.n3) + pwSlope(1 - xi, p.n4));
+  }
+
+  /** Martensite fraction reached by stress-free cooling from austenite to `temperature`. */
+  stressFreeFraction(temperature: number): number {
+    const p = this.params;
+    const drive = p.rhoDs0 * temperature - p.rhoDu0 - p.Y0;
+    if (drive - this.fFwd(0) <= 0) return 0;
+    if (drive - this.fFwd(1) >= 0) return 1;
+    let lo = 0;
+    let hi = 1;
+    for (let it = 0; it < 60; it++) {
+      const mid = 0.5 * (lo + hi);
+      if (drive - this.fFwd(mid) > 0) lo = mid;
+      else hi = mid;
+    }
+    return 0.5 * (lo + hi);
+  }
+
+  // ---------------------------------------------------------------- evaluations at fixed ξ
+  private compliance(xi: number): number {
+    return 1 / this.params.E_A + xi * this.params.dS;
+  }
+
+  /** ε − εᵗ_base − α(ξ)ΔT 1, before the Δξ·Λ term. */
+  private knownStrain(xi: number): void {
+    const p = this.params;
+    const th = (p.alpha_A + xi * p.dAlpha) * (this.temp - p.T_ref);
+    for (let i = 0; i < 6; i++) this.estar[i] = this.eps[i] - this.etB[i];
+    this.estar[0] -= th;
+    this.estar[1] -= th;
+    this.estar[2] -= th;
+  }
+
+  /** σ:P:σ with P = (1+ν)I − ν 1⊗1 (so σ:S:σ = s σ:P:σ). */
+  private sPs(): number {
+    const nu = this.params.nu;
+    const s = this.sig;
+    const tr = s[0] + s[1] + s[2];
+    let ss = 0;
+    for (let i = 0; i < 6; i++) ss += s[i] * s[i];
+    return (1 + nu) * ss - nu * tr * tr;
+  }
+
+  /** N = ∂(strain residual)/∂ξ = Λ + ΔS:σ + Δα ΔT 1. */
+  private buildN(lam: Float64Array): void {
+    const p = this.params;
+    const s = this.sig;
+    const tr = s[0] + s[1] + s[2];
+    const dT = this.temp - p.T_ref;
+    for (let i = 0; i < 6; i++) this.nVec[i] = lam[i] + p.dS * (1 + p.nu) * s[i];
+    for (let i = 0; i < 3; i++) this.nVec[i] += -p.dS * p.nu * tr + p.dAlpha * dT;
+  }
+
+  /** out = Ξ v, Ξ = [s(ξ)P + Δξ ∂Λ/∂σ]⁻¹ in its spectral form (volumetric, n̂, rest of deviator). */
+  private applyXi(v: Float64Array, out: Float64Array): void {
+    const p = this.params;
+    const trv = (v[0] + v[1] + v[2]) / 3;
+    const kv = trv / (this.sC * (1 - 2 * p.nu));
+    const n = this.nhat;
+    let nv = 0;
+    for (let i = 0; i < 6; i++) nv += n[i] * v[i];
+    const c = nv * (1 / this.bC - 1 / this.aC);
+    for (let i = 0; i < 6; i++) out[i] = (i < 3 ? v[i] - trv : v[i]) / this.aC + c * n[i];
+    out[0] += kv;
+    out[1] += kv;
+    out[2] += kv;
+  }
+
+  /**
+   * Forward: stress for a given ξ ≥ ξ_base, Φ_fwd there and dΦ/dξ along the solution.
+   * Returns Φ; leaves σ, Λ, n̂, s, a, b, N, ∂Φ/∂σ and the denominator in the work buffers.
+   */
+  private evalForward(xi: number): number {
+    const p = this.params;
+    const dxi = xi - this.xiB;
+    const s = this.compliance(xi);
+    this.sC = s;
+    this.knownStrain(xi);
+    const e = this.estar;
+    const tr = e[0] + e[1] + e[2];
+    const m = tr / 3;
+    let nn = 0;
+    for (let i = 0; i < 6; i++) {
+      const d = i < 3 ? e[i] - m : e[i];
+      this.nhat[i] = d;
+      nn += d * d;
+    }
+    const enorm = Math.sqrt(nn);
+    if (enorm > 0) for (let i = 0; i < 6; i++) this.nhat[i] /= enorm;
+    else this.nhat.fill(0);
+    const c = s * (1 + p.nu);
+    const target = SQ32 * enorm;
+    const r2 = p.sigmaReg * p.sigmaReg;
+    // Scalar equation c σ̄ + 1.5 Δξ H(σ̄) σ̄/σ̄_r = √(3/2)‖e*'‖, increasing in σ̄.
+    let x = target / c;
+    let lo = 0;
+    let hi = x;
+    let H = 0;
+    let Hp = 0;
+    let g = 0;
+    let gp = 0;
+    let converged = dxi === 0;
+    for (let it = 0; it < MAX_INNER; it++) {
+      const ex = p.k_t === 0 ? 1 : Math.exp(-p.k_t * x);
+      H = p.H_min + (p.H_sat - p.H_min) * (1 - ex);
+      Hp = (p.H_sat - p.H_min) * p.k_t * ex;
+      const sr = Math.sqrt(x * x + r2);
+      g = x / sr;
+      gp = r2 / (sr * sr * sr);
+      if (converged) break;
+      const psi = c * x + 1.5 * dxi * H * g - target;
+      const dpsi = c + 1.5 * dxi * (Hp * g + H * gp);
+      if (psi > 0) hi = x;
+      else lo = x;
+      if (Math.abs(psi) <= 1e-15 * target) {
+        converged = true;
+        continue; // one more pass refreshes H, g at x
+      }
+      let xn = x - psi / dpsi;
+      if (!(xn > lo && xn < hi)) xn = 0.5 * (lo + hi);
+      if (Math.abs(xn - x) <= 1e-15 * Math.max(x, 1e-300)) converged = true;
+      x = xn;
+    }
+    if (!converged) this.failure = 'forward transformation: stress equation did not converge';
+    const sbar = x;
+    const a = c + 1.5 * dxi * H / Math.sqrt(sbar * sbar + r2);
+    const b = c + 1.5 * dxi * (Hp * g + H * gp);
+    this.aC = a;
+    this.bC = b;
+    const dev = Math.sqrt(2 / 3) * sbar;
+    const pm = tr / (3 * s * (1 - 2 * p.nu));
+    const lamMag = SQ32 * H * g;
+    for (let i = 0; i < 6; i++) {
+      this.sig[i] = dev * this.nhat[i] + (i < 3 ? pm : 0);
+      this.lam[i] = lamMag * this.nhat[i];
+    }
+    const dT = this.temp - p.T_ref;
+    const trs = 3 * pm;
+    const phi =
+      (1 - p.D) * H * sbar * g + 0.5 * p.dS * this.sPs() + p.dAlpha * dT * trs +
+      p.rhoDs0 * this.temp - p.rhoDu0 - this.fFwd(xi) - p.Y0;
+    // ∂Φ/∂σ
+    const dPhiBar = (1 - p.D) * (Hp * sbar * g + H * g + H * sbar * gp) * SQ32;
+    for (let i = 0; i < 6; i++) this.phiS[i] = dPhiBar * this.nhat[i] + p.dS * (1 + p.nu) * this.sig[i];
+    for (let i = 0; i < 3; i++) this.phiS[i] += -p.dS * p.nu * trs + p.dAlpha * dT;
+    this.buildN(this.lam);
+    this.applyXi(this.nVec, this.xiN);
+    let q = 0;
+    for (let i = 0; i < 6; i++) q += this.phiS[i] * this.xiN[i];
+    this.denC = q + this.fFwdSlope(xi);
+    return phi;
+  }
+
+  /** Reverse: σ explicit for a given ξ ≤ ξ_base (direction Λ_r = εᵗʳ/ξʳ frozen). */
+  private evalReverse(xi: number): number {
+    const p = this.params;
+    const dxi = xi - this.xiB;
+    const s = this.compliance(xi);
+    this.sC = s;
+    this.aC = s * (1 + p.nu);
+    this.bC = this.aC;
+    this.nhat.fill(0);
+    this.knownStrain(xi);
+    for (let i = 0; i < 6; i++) this.estar[i] -= dxi * this.lamR[i];
+    this.applyXi(this.estar, this.sig);
+    const dT = this.temp - p.T_ref;
+    const trs = this.sig[0] + this.sig[1] + this.sig[2];
+    let sl = 0;
+    for (let i = 0; i < 6; i++) sl += this.sig[i] * this.lamR[i];
+    const phi =
+      -(1 + p.D) * sl - 0.5 * p.dS * this.sPs() - p.dAlpha * dT * trs -
+      p.rhoDs0 * this.temp + p.rhoDu0 + this.fRev(xi) - p.Y0;
+    for (let i = 0; i < 6; i++) this.phiS[i] = -(1 + p.D) * this.lamR[i] - p.dS * (1 + p.nu) * this.sig[i];
+    for (let i = 0; i < 3; i++) this.phiS[i] += p.dS * p.nu * trs - p.dAlpha * dT;
+    this.buildN(this.lamR);
+    this.applyXi(this.nVec, this.xiN);
+    let q = 0;
+    for (let i = 0; i < 6; i++) q += this.phiS[i] * this.xiN[i];
+    this.denC = q - this.fRevSlope(xi);
+    return phi;
+  }
+
+  private evalDir(dir: Direction, xi: number): number {
+    return dir === 'forward' ? this.evalForward(xi) : this.evalReverse(xi);
+  }
+
+  /** Sets the frozen reverse direction from the base memory (guarding ξʳ → 0). */
+  private setReverseDirection(): void {
+    const inv = this.xirB > 1e-12 ? 1 / this.xirB : 0;
+    for (let i = 0; i < 6; i++) this.lamR[i] = this.etrB[i] * inv;
+  }
+
+  /**
+   * Solves Φ(σ(ξ), ξ) = 0 for ξ between the base and the bound (1 forward, 0 reverse), given that
+   * Φ > 0 at the base. Newton inside the bracket, bisection when a step leaves it; the bound is
+   * taken only when Φ there is still ≥ 0. Leaves the work buffers evaluated at the returned ξ.
+   */
+  private solveFraction(dir: Direction): number {
+    const bound = dir === 'forward' ? 1 : 0;
+    const phiBound = this.evalDir(dir, bound);
+    if (phiBound >= 0) return bound;
+    // pos: Φ > 0 side (base), neg: Φ < 0 side (bound)
+    let pos = this.xiB;
+    let neg = bound;
+    let x = this.xiB;
+    let phi = this.evalDir(dir, x);
+    for (let it = 0; it < MAX_OUTER; it++) {
+      if (phi > 0) pos = x;
+      else neg = x;
+      if (Math.abs(phi) <= this.tolPhi) return x;
+      if (Math.abs(pos - neg) <= 1e-15) break;
+      // dΦ/dξ along the solution = −den
+      let xn = x + phi / this.denC;
+      const lo = Math.min(pos, neg);
+      const hi = Math.max(pos, neg);
+      if (!(xn > lo && xn < hi)) xn = 0.5 * (lo + hi);
+      x = xn;
+      phi = this.evalDir(dir, x);
+    }
+    if (Math.abs(phi) > 1e3 * this.tolPhi && Math.abs(pos - neg) > 1e-12) {
+      this.failure = `${dir} transformation: fraction equation did not converge (Φ = ${phi.toExponential(3)})`;
+    }
+    return x;
+  }
+
+  /** Loads the base state from stored state. */
+  private loadBase(state: Float64Array, offset: number): void {
+    for (let i = 0; i < 6; i++) {
+      this.etB[i] = state[offset + ET + i];
+      this.etrB[i] = state[offset + ETR + i];
+    }
+    this.xiB = state[offset + XI];
+    this.xirB = state[offset + XIR];
+  }
+
+  /** Trial values of Φ_fwd and Φ_rev with the base internal state frozen (−∞ where not allowed). */
+  private trialPhis(out: { fwd: number; rev: number }): void {
+    out.fwd = this.xiB < 1 ? this.evalForward(this.xiB) : -Infinity;
+    if (this.xiB > 0) {
+      this.setReverseDirection();
+      out.rev = this.evalReverse(this.xiB);
+    } else out.rev = -Infinity;
+  }
+
+  private readonly trial = { fwd: 0, rev: 0 };
+  private readonly trialOld = { fwd: 0, rev: 0 };
+
+  /** Runs one phase from the base state and moves the base to its end. */
+  private runPhase(dir: Direction): boolean {
+    if (dir === 'reverse') this.setReverseDirection();
+    this.snapshotPhaseStart();
+    const xi = this.solveFraction(dir);
+    this.commitPhaseEnd(xi, dir);
+    return dir === 'forward' ? xi < 1 : xi > 0;
+  }
+
+  update(
+    input: MaterialPointInput,
+    stateOld: Float64Array,
+    oldOffset: number,
+    state: Float64Array,
+    newOffset: number,
+    out: MaterialPointOutput,
+  ): void {
+    this.failure = '';
+    this.loadBase(stateOld, oldOffset);
+    this.eps.set(input.strain);
+    this.temp = input.temperature;
+    const tol = this.tolPhi;
+    this.trialPhis(this.trial);
+    let mode: 'elastic' | Direction = 'elastic';
+    let transforming = false;
+    if (this.trial.fwd > tol || this.trial.rev > tol) {
+      let first: Direction;
+      if (this.trial.fwd > tol && this.trial.rev > tol) {
+        // Both positive after a large or reversing increment: follow the one that grew more
+        // since the converged state (pitfall 2), then let the other one correct if needed.
+        this.eps.set(input.strainOld);
+        this.temp = input.temperatureOld;
+        this.trialPhis(this.trialOld);
+        this.eps.set(input.strain);
+        this.temp = input.temperature;
+        first = this.trial.fwd - this.trialOld.fwd >= this.trial.rev - this.trialOld.rev ? 'forward' : 'reverse';
+      } else first = this.trial.fwd > tol ? 'forward' : 'reverse';
+      transforming = this.runPhase(first);
+      mode = first;
+      const second: Direction = first === 'forward' ? 'reverse' : 'forward';
+      const allowed = second === 'forward' ? this.xiB < 1 : this.xiB > 0;
+      if (allowed) {
+        let phi2: number;
+        if (second === 'reverse') {
+          this.setReverseDirection();
+          phi2 = this.evalReverse(this.xiB);
+        } else phi2 = this.evalForward(this.xiB);
+        if (phi2 > tol) {
+          transforming = this.runPhase(second);
+          mode = second;
+        }
+      }
+      // re-evaluate at the end state of the last phase for stress and tangent
+      this.reevaluateEnd(mode);
+    } else {
+      this.evalReverseElastic();
+    }
+    this.writeState(state, newOffset);
+    out.stress.set(this.sig);
+    this.writeTangent(out.tangent, mode !== 'elastic' && transforming);
+    let finite = true;
+    for (let i = 0; i < 6; i++) finite = finite && Number.isFinite(this.sig[i]);
+    out.ok = finite && this.failure === '';
+    out.message = out.ok ? '' : this.failure || 'non-finite stress in the Lagoudas 2012 update';
+  }
+
+  /**
+   * The probe of the other direction overwrote the work buffers: evaluate the end state again
+   * from the start of the last phase, so stress and tangent carry that phase's Δξ.
+   */
+  private reevaluateEnd(mode: Direction): void {
+    const xi = this.xiB;
+    this.restorePhaseStart();
+    if (mode === 'forward') this.evalForward(xi);
+    else {
+      this.setReverseDirection();
+      this.evalReverse(xi);
+    }
+    this.commitPhaseEnd(xi, mode);
+  }
+
+  private evalReverseElastic(): void {
+    // trialPhis evaluated forward last when xiB < 1 only; recompute the elastic stress uniformly.
+    this.setReverseDirection();
+    this.evalReverse(this.xiB);
+  }
+
+  // Phase-start snapshot so the end state can be re-evaluated with the right Δξ.
+  private readonly psEt = new Float64Array(6);
+  private readonly psEtr = new Float64Array(6);
+  private psXi = 0;
+  private psXir = 0;
+
+  private snapshotPhaseStart(): void {
+    this.psEt.set(this.etB);
+    this.psEtr.set(this.etrB);
+    this.psXi = this.xiB;
+    this.psXir = this.xirB;
+  }
+
+  private restorePhaseStart(): void {
+    this.etB.set(this.psEt);
+    this.etrB.set(this.psEtr);
+    this.xiB = this.psXi;
+    this.xirB = this.psXir;
+  }
+
+  private commitPhaseEnd(xi: number, dir: Direction): void {
+    const dxi = xi - this.xiB;
+    const lam = dir === 'forward' ? this.lam : this.lamR;
+    for (let i = 0; i < 6; i++) this.etB[i] += dxi * lam[i];
+    this.xiB = xi;
+    if (dir === 'forward') {
+      this.etrB.set(this.etB);
+      this.xirB = xi;
+    } else if (xi <= 0) {
+      this.xiB = 0;
+      this.etB.fill(0);
+      this.etrB.fill(0);
+      this.xirB = 0;
+    }
+  }
+
+  private writeState(state: Float64Array, offset: number): void {
+    for (let i = 0; i < 6; i++) {
+      state[offset + ET + i] = this.etB[i];
+      state[offset + ETR + i] = this.etrB[i];
+    }
+    state[offset + XI] = this.xiB;
+    state[offset + XIR] = this.xirB;
+  }
+
+  /** Ξ − (ΞN)⊗(Ξ ∂Φ/∂σ)/den while transforming, Ξ otherwise. */
+  private writeTangent(t: Float64Array, transforming: boolean): void {
+    const p = this.params;
+    const kv = 1 / (3 * this.sC * (1 - 2 * p.nu));
+    const ia = 1 / this.aC;
+    const dn = 1 / this.bC - ia;
+    const n = this.nhat;
+    for (let i = 0; i < 6; i++) {
+      for (let j = 0; j < 6; j++) {
+        let v = dn * n[i] * n[j];
+        if (i === j) v += ia;
+        if (i < 3 && j < 3) v += kv - ia / 3;
+        t[i * 6 + j] = v;
+      }
+    }
+    if (!transforming) return;
+    this.applyXi(this.phiS, this.xiPhi);
+    const inv = 1 / this.denC;
+    for (let i = 0; i < 6; i++) {
+      const ci = this.xiN[i] * inv;
+      for (let j = 0; j < 6; j++) t[i * 6 + j] -= ci * this.xiPhi[j];
+    }
+  }
+}
+
+/** Calibrates and builds the model; throws with a message naming the measured quantity to fix. */
+export function createLagoudas2012(measured: Lagoudas2012Measured): Lagoudas2012Material {
+  const cal = calibrateLagoudas2012(measured);
+  if (!cal.ok) throw new Error(cal.message);
+  return new Lagoudas2012Material(cal.constants);
+}

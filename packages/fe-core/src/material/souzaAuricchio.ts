@@ -1,0 +1,385 @@
+/**
+ * Transformation-strain SMA model of Souza, Mamiya & Zouain (1998) in the form of Auricchio &
+ * Petrini (2002, 2004): 3D, small strain, isotropic elasticity (E, ν), thermal expansion α.
+ *
+ * State per point (6 doubles): the deviatoric transformation strain eᵗʳ (Kelvin–Mandel).
+ * Driving force X = s − [τ(T) + h‖eᵗʳ‖ + γ] eᵗʳ/‖eᵗʳ‖, limit function F = ‖X‖ − R, flow
+ * ėᵗʳ = ζ̇ X/‖X‖, constraint ‖eᵗʳ‖ ≤ ε_L (multiplier γ ≥ 0), τ(T) = β⟨T − T0⟩.
+ * Uniaxially the largest transformation strain is √(2/3)·ε_L (ε_L bounds the tensor norm).
+ *
+ * Return map (backward Euler, exact cases, no regularisation of the norm):
+ *  - elastic when the trial driving force lies inside the elastic domain (at saturation the
+ *    best γ ≥ 0 is used);
+ *  - otherwise the discrete equations reduce to one scalar equation in the increment Δζ:
+ *    with λ = Δζ/(2GΔζ + R) the new eᵗʳ is parallel to v = eᵗʳ_n + λ s_trial and its norm is
+ *    q = (‖v‖ − λτ)/(1 + λh), cut to [0, ε_L] — the cut at 0 is the complete reverse (the
+ *    subgradient of the norm at the origin), the cut at ε_L the saturated case with
+ *    γ = (‖v‖ − ε_L)/λ − τ − hε_L ≥ 0. Δζ then solves ‖eᵗʳ(Δζ) − eᵗʳ_n‖ = Δζ, found by a
+ *    bracketed secant (Illinois) iteration; nucleation from eᵗʳ_n = 0 and reorientation under
+ *    non-proportional loading are the same equation.
+ *  - the consistent tangent comes from the linearisation of the full residual in (eᵗʳ, Δζ[, γ]).
+ *
+ * Tension–compression asymmetry (Lode-angle term) is not implemented: `asymmetry` must be 0.
+ */
+import type { Material, MaterialPointInput, MaterialPointOutput, MaterialReport } from './types';
+
+export interface SouzaAuricchioInput {
+  E: number;
+  nu: number;
+  alpha: number;
+  T_ref: number;
+  h: number;
+  beta: number;
+  T0: number;
+  R: number;
+  eps_L: number;
+  asymmetry?: number;
+}
+
+export interface SouzaAuricchioConstants extends SouzaAuricchioInput {
+  G: number;
+  K: number;
+}
+
+export type SouzaCheck = { ok: true; constants: SouzaAuricchioConstants } | { ok: false; field: string; message: string };
+
+export function checkSouzaAuricchio(p: SouzaAuricchioInput): SouzaCheck {
+  const fields = ['E', 'nu', 'alpha', 'T_ref', 'h', 'beta', 'T0', 'R', 'eps_L'] as const;
+  for (const f of fields) {
+    if (!Number.isFinite(p[f])) return { ok: false, field: f, message: `${f}: must be a finite number` };
+  }
+  for (const f of ['E', 'h', 'beta', 'R', 'eps_L'] as const) {
+    if (!(p[f] > 0)) return { ok: false, field: f, message: `${f}: must be > 0` };
+  }
+  if (!(p.nu > -1 && p.nu < 0.5)) return { ok: false, field: 'nu', message: 'nu: must lie in (−1, 0.5)' };
+  if ((p.asymmetry ?? 0) !== 0) {
+    return { ok: false, field: 'asymmetry', message: 'asymmetry: the Lode-angle (tension–compression) term is not available yet; use 0' };
+  }
+  const G = p.E / (2 * (1 + p.nu));
+  const K = p.E / (3 * (1 - 2 * p.nu));
+  return { ok: true, constants: { ...p, G, K } };
+}
+
+export const SOUZA_STATE_SIZE = 6;
+const MAX_ITER = 200;
+/** Deviatoric identity in Kelvin–Mandel form. */
+function idev(i: number, j: number): number {
+  return (i === j ? 1 : 0) - (i < 3 && j < 3 ? 1 / 3 : 0);
+}
+
+type Regime = 'elastic' | 'free' | 'saturated';
+
+export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants> {
+  readonly model = 'souza-auricchio';
+  readonly stateSize = SOUZA_STATE_SIZE;
+
+  private readonly e = new Float64Array(6);
+  private readonly etrN = new Float64Array(6);
+  private readonly sTr = new Float64Array(6);
+  private readonly etr = new Float64Array(6);
+  private readonly v = new Float64Array(6);
+  private readonly nDir = new Float64Array(6);
+  private readonly nHat = new Float64Array(6);
+  private readonly dX = new Float64Array(36);
+  // Linear system for the tangent: up to 8 unknowns, 6 right-hand sides.
+  private readonly jac = new Float64Array(64);
+  private readonly rhs = new Float64Array(48);
+  private tau = 0;
+  private qReg: Regime = 'elastic';
+  private qNorm = 0;
+  private lambda = 0;
+  private failure = '';
+
+  constructor(readonly params: SouzaAuricchioConstants) {}
+
+  initState(state: Float64Array, offset: number): void {
+    for (let i = 0; i < SOUZA_STATE_SIZE; i++) state[offset + i] = 0;
+  }
+
+  report(state: Float64Array, offset: number, out: MaterialReport): void {
+    let q = 0;
+    for (let i = 0; i < 6; i++) {
+      const x = state[offset + i];
+      out.transformationStrain[i] = x;
+      q += x * x;
+    }
+    out.xi = Math.sqrt(q) / this.params.eps_L;
+    out.eqPlastic = 0;
+  }
+
+  /** eᵗʳ(Δζ) by the scalar reduction; returns ‖eᵗʳ − eᵗʳ_n‖/Δζ − 1. */
+  private trial(dz: number): number {
+    const p = this.params;
+    const lam = dz / (2 * p.G * dz + p.R);
+    let vv = 0;
+    for (let i = 0; i < 6; i++) {
+      const x = this.etrN[i] + lam * this.sTr[i];
+      this.v[i] = x;
+      vv += x * x;
+    }
+    const vn = Math.sqrt(vv);
+    let q = (vn - lam * this.tau) / (1 + lam * p.h);
+    let reg: Regime = 'free';
+    if (q <= 0 || vn === 0) {
+      q = 0;
+      reg = 'elastic';
+    } else if (q >= p.eps_L) {
+      q = p.eps_L;
+      reg = 'saturated';
+    }
+    const scale = vn > 0 ? q / vn : 0;
+    let dd = 0;
+    for (let i = 0; i < 6; i++) {
+      const x = scale * this.v[i];
+      this.etr[i] = x;
+      const d = x - this.etrN[i];
+      dd += d * d;
+    }
+    this.qReg = reg;
+    this.qNorm = q;
+    this.lambda = lam;
+    return Math.sqrt(dd) / dz - 1;
+  }
+
+  /** Bracketed secant (Illinois) for the nontrivial root of trial(Δζ) = 0. */
+  private solveIncrement(): void {
+    const p = this.params;
+    let qn = 0;
+    for (let i = 0; i < 6; i++) qn += this.etrN[i] * this.etrN[i];
+    const upper = Math.sqrt(qn) + p.eps_L;
+    let a = 1e-12 * upper;
+    let fa = this.trial(a);
+    let b = upper;
+    let fb = this.trial(b);
+    if (!(fa > 0) || fb > 0) {
+      // The elastic test said "transform", so fa > 0 holds up to round-off; accept the end.
+      if (fb > 0) this.trial(b);
+      else this.trial(a);
+      return;
+    }
+    let side = 0;
+    const tolZ = 1e-15 * upper;
+    for (let it = 0; it < MAX_ITER; it++) {
+      let c = (a * fb - b * fa) / (fb - fa);
+      if (!(c > a && c < b)) c = 0.5 * (a + b);
+      const fc = this.trial(c);
+      if (Math.abs(fc) <= 1e-14 || b - a <= tolZ) return;
+      if (fc < 0) {
+        b = c;
+        fb = fc;
+        if (side === -1) fa *= 0.5;
+        side = -1;
+      } else {
+        a = c;
+        fa = fc;
+        if (side === 1) fb *= 0.5;
+        side = 1;
+      }
+    }
+    this.failure = 'transformation-strain return map did not converge';
+  }
+
+  update(
+    input: MaterialPointInput,
+    stateOld: Float64Array,
+    oldOffset: number,
+    state: Float64Array,
+    newOffset: number,
+    out: MaterialPointOutput,
+  ): void {
+    const p = this.params;
+    this.failure = '';
+    const eps = input.strain;
+    const T = input.temperature;
+    this.tau = p.beta * Math.max(T - p.T0, 0);
+    const tr = eps[0] + eps[1] + eps[2];
+    const m = tr / 3;
+    let qn2 = 0;
+    for (let i = 0; i < 6; i++) {
+      this.e[i] = i < 3 ? eps[i] - m : eps[i];
+      const x = stateOld[oldOffset + i];
+      this.etrN[i] = x;
+      qn2 += x * x;
+      this.sTr[i] = 2 * p.G * (this.e[i] - x);
+    }
+    const qn = Math.sqrt(qn2);
+    const transforms = this.isTransforming(qn);
+    if (transforms) this.solveIncrement();
+    else {
+      this.etr.set(this.etrN);
+      this.qReg = 'elastic';
+    }
+    if (this.qReg === 'elastic' && transforms) this.etr.fill(0); // complete reverse
+    const pr = p.K * (tr - 3 * p.alpha * (T - p.T_ref));
+    for (let i = 0; i < 6; i++) {
+      out.stress[i] = 2 * p.G * (this.e[i] - this.etr[i]) + (i < 3 ? pr : 0);
+      state[newOffset + i] = this.etr[i];
+    }
+    this.writeTangent(out.tangent);
+    let finite = true;
+    for (let i = 0; i < 6; i++) finite = finite && Number.isFinite(out.stress[i]);
+    out.ok = finite && this.failure === '';
+    out.message = out.ok ? '' : this.failure || 'non-finite stress in the Souza–Auricchio update';
+  }
+
+  /** Elastic test with the trial driving force (exact cases, γ ≥ 0 chosen at saturation). */
+  private isTransforming(qn: number): boolean {
+    const p = this.params;
+    const tolR = 1e-12 * p.R;
+    let ss = 0;
+    if (qn <= 1e-14 * p.eps_L) {
+      for (let i = 0; i < 6; i++) ss += this.sTr[i] * this.sTr[i];
+      return Math.sqrt(ss) > p.R + this.tau + tolR;
+    }
+    const k0 = this.tau + p.h * qn;
+    let c = 0;
+    for (let i = 0; i < 6; i++) {
+      const y = this.sTr[i] - (k0 * this.etrN[i]) / qn;
+      ss += y * y;
+      c += (y * this.etrN[i]) / qn;
+    }
+    // At saturation γ = max(c, 0) removes the component along eᵗʳ.
+    const saturated = qn >= p.eps_L * (1 - 1e-12);
+    const xx = saturated && c > 0 ? Math.max(ss - c * c, 0) : ss;
+    return Math.sqrt(xx) > p.R + tolR;
+  }
+
+  private writeTangent(t: Float64Array): void {
+    const p = this.params;
+    for (let i = 0; i < 6; i++) {
+      for (let j = 0; j < 6; j++) t[i * 6 + j] = (i < 3 && j < 3 ? p.K : 0) + 2 * p.G * idev(i, j);
+    }
+    if (this.qReg === 'elastic') return;
+    this.transformationTangent(t);
+  }
+
+  /**
+   * Linearises R1 = eᵗʳ − eᵗʳ_n − Δζ X/‖X‖, R2 = ‖X‖ − R (and R3 = ‖eᵗʳ‖ − ε_L at saturation)
+   * in (eᵗʳ, Δζ[, γ]) and ε, solves for deᵗʳ/dε and subtracts 2G deᵗʳ/dε.
+   */
+  private transformationTangent(t: Float64Array): void {
+    const p = this.params;
+    const sat = this.qReg === 'saturated';
+    const nu = sat ? 8 : 7;
+    const q = this.qNorm;
+    const lam = this.lambda;
+    // Δζ from λ, and N̂ = Δ/‖Δ‖ (= X/‖X‖ at the solution)
+    const dz = (p.R * lam) / (1 - 2 * p.G * lam);
+    let dd = 0;
+    for (let i = 0; i < 6; i++) {
+      const d = this.etr[i] - this.etrN[i];
+      this.nHat[i] = d;
+      dd += d * d;
+      this.nDir[i] = this.etr[i] / q;
+    }
+    const dn = Math.sqrt(dd);
+    for (let i = 0; i < 6; i++) this.nHat[i] = dn > 0 ? this.nHat[i] / dn : 0;
+    // κ = τ + hq + γ; at saturation γ from the reduction
+    let kappa = this.tau + p.h * q;
+    if (sat) {
+      let vv = 0;
+      for (let i = 0; i < 6; i++) vv += this.v[i] * this.v[i];
+      kappa += Math.max((Math.sqrt(vv) - p.eps_L) / lam - this.tau - p.h * p.eps_L, 0);
+    }
+    const n = this.nDir;
+    const N = this.nHat;
+    // dX/deᵗʳ = −2G I_d − h n⊗n − (κ/q)(I_d − n⊗n)
+    for (let i = 0; i < 6; i++) {
+      for (let j = 0; j < 6; j++) {
+        const id = idev(i, j);
+        this.dX[i * 6 + j] = -2 * p.G * id - p.h * n[i] * n[j] - (kappa / q) * (id - n[i] * n[j]);
+      }
+    }
+    const J = this.jac;
+    const B = this.rhs;
+    J.fill(0);
+    B.fill(0);
+    const c = dz / p.R;
+    // Rows 0..5: R1
+    for (let i = 0; i < 6; i++) {
+      for (let j = 0; j < 6; j++) {
+        let pd = 0; // [(I_d − N̂N̂) dX/deᵗʳ]_ij
+        for (let k = 0; k < 6; k++) pd += (idev(i, k) - N[i] * N[k]) * this.dX[k * 6 + j];
+        J[i * nu + j] = (i === j ? 1 : 0) - c * pd;
+        B[i * 6 + j] = c * 2 * p.G * (idev(i, j) - N[i] * N[j]);
+      }
+      J[i * nu + 6] = -N[i];
+      if (sat) {
+        let pn = 0;
+        for (let k = 0; k < 6; k++) pn += (idev(i, k) - N[i] * N[k]) * n[k];
+        J[i * nu + 7] = c * pn;
+      }
+    }
+    // Row 6: R2 = ‖X‖ − R
+    for (let j = 0; j < 6; j++) {
+      let s = 0;
+      for (let k = 0; k < 6; k++) s += N[k] * this.dX[k * 6 + j];
+      J[6 * nu + j] = s;
+      B[6 * 6 + j] = -2 * p.G * N[j];
+    }
+    if (sat) {
+      let nn = 0;
+      for (let k = 0; k < 6; k++) nn += N[k] * n[k];
+      J[6 * nu + 7] = -nn;
+      for (let j = 0; j < 6; j++) J[7 * nu + j] = n[j];
+    }
+    if (!solveDense(J, B, nu, 6)) {
+      this.failure = 'singular transformation-strain tangent';
+      return;
+    }
+    for (let i = 0; i < 6; i++) {
+      for (let j = 0; j < 6; j++) t[i * 6 + j] -= 2 * p.G * B[i * 6 + j];
+    }
+  }
+}
+
+/** Gaussian elimination with partial pivoting: A (n×n) X = B (n×m), X overwrites B. */
+function solveDense(A: Float64Array, B: Float64Array, n: number, m: number): boolean {
+  for (let k = 0; k < n; k++) {
+    let piv = k;
+    let best = Math.abs(A[k * n + k]);
+    for (let r = k + 1; r < n; r++) {
+      const v = Math.abs(A[r * n + k]);
+      if (v > best) {
+        best = v;
+        piv = r;
+      }
+    }
+    if (!(best > 0)) return false;
+    if (piv !== k) {
+      for (let j = 0; j < n; j++) {
+        const tmp = A[k * n + j];
+        A[k * n + j] = A[piv * n + j];
+        A[piv * n + j] = tmp;
+      }
+      for (let j = 0; j < m; j++) {
+        const tmp = B[k * m + j];
+        B[k * m + j] = B[piv * m + j];
+        B[piv * m + j] = tmp;
+      }
+    }
+    const d = A[k * n + k];
+    for (let r = k + 1; r < n; r++) {
+      const f = A[r * n + k] / d;
+      if (f === 0) continue;
+      for (let j = k; j < n; j++) A[r * n + j] -= f * A[k * n + j];
+      for (let j = 0; j < m; j++) B[r * m + j] -= f * B[k * m + j];
+    }
+  }
+  for (let k = n - 1; k >= 0; k--) {
+    const d = A[k * n + k];
+    for (let j = 0; j < m; j++) {
+      let s = B[k * m + j];
+      for (let c = k + 1; c < n; c++) s -= A[k * n + c] * B[c * m + j];
+      B[k * m + j] = s / d;
+    }
+  }
+  return true;
+}
+
+/** Validates and builds the model; throws with a message naming the parameter to fix. */
+export function createSouzaAuricchio(input: SouzaAuricchioInput): SouzaAuricchioMaterial {
+  const c = checkSouzaAuricchio(input);
+  if (!c.ok) throw new Error(c.message);
+  return new SouzaAuricchioMaterial(c.constants);
+}
