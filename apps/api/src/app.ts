@@ -1,0 +1,119 @@
+/**
+ * Builds the Express app (no listening here: server.ts listens, tests hand the app to supertest).
+ */
+import express, { type Express, type RequestHandler } from 'express';
+import helmet from 'helmet';
+import { rateLimit } from 'express-rate-limit';
+import { pinoHttp } from 'pino-http';
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
+import type { AppContext } from './context';
+import { ApiRouter } from './http/route';
+import { createRegistry, buildOpenApiDocument } from './http/openapi';
+import { errorHandler, HttpError, notFoundHandler } from './http/errors';
+import { createPassport, createSessionMiddleware, type PassportInstance } from './auth/session';
+import { registerAuthRoutes } from './auth/auth.routes';
+import { registerUserRoutes } from './users/users.routes';
+import { registerProjectRoutes } from './projects/projects.routes';
+import { registerMaterialRoutes } from './materials/materials.routes';
+import { registerStudyRoutes } from './studies/studies.routes';
+import { registerRunRoutes } from './runs/runs.routes';
+import { registerCommentRoutes } from './comments/comments.routes';
+import { registerAuditRoutes } from './audit/audit.routes';
+import { registerTestDataRoutes } from './testdata/testdata.routes';
+import { registerHealthRoutes } from './health/health.routes';
+import { API_VERSION } from './version';
+
+export interface BuiltApp {
+  app: Express;
+  /** Shared with Socket.IO so sockets know their user. */
+  sessionMiddleware: RequestHandler;
+  passport: PassportInstance;
+}
+
+/**
+ * Cookie sessions are open to cross-site request forgery; browsers send an Origin header with
+ * every cross-site POST, so a mutating request whose Origin is not this host is refused.
+ */
+const sameOriginForWrites: RequestHandler = (req, _res, next) => {
+  if (req.method === 'GET' || req.method === 'HEAD' || req.method === 'OPTIONS') return next();
+  const origin = req.headers.origin;
+  if (!origin) return next();
+  let host: string;
+  try {
+    host = new URL(origin).host;
+  } catch {
+    return next(new HttpError(403, 'Cross-site request refused'));
+  }
+  if (host !== req.headers.host) return next(new HttpError(403, 'Cross-site request refused'));
+  next();
+};
+
+export function createApp(ctx: AppContext): BuiltApp {
+  const app = express();
+  const registry = createRegistry();
+  const passport = createPassport();
+  const sessionMiddleware = createSessionMiddleware(ctx.pool, ctx.config.SESSION_SECRET, ctx.config.PUBLIC_URL.startsWith('https:'));
+
+  app.disable('x-powered-by');
+  app.set('query parser', 'extended');
+  if (ctx.config.NODE_ENV !== 'test') app.use(pinoHttp({ logger: ctx.logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          // Element Plus and ECharts set inline styles; three.js and ECharts draw to blob/data images.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          workerSrc: ["'self'", 'blob:'],
+          connectSrc: ["'self'", 'ws:', 'wss:'],
+          fontSrc: ["'self'", 'data:'],
+        },
+      },
+    }),
+  );
+  app.use(express.json({ limit: '10mb' }));
+  app.use(sameOriginForWrites);
+  app.use(sessionMiddleware);
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  const authLimiter = rateLimit({ windowMs: 15 * 60_000, limit: ctx.config.LOGIN_RATE_LIMIT, standardHeaders: 'draft-8', legacyHeaders: false });
+  app.use(['/api/auth/login', '/api/auth/password-reset'], authLimiter);
+
+  const api = new ApiRouter('/api', registry);
+  registerHealthRoutes(api, ctx);
+  registerAuthRoutes(api, ctx, passport);
+  registerUserRoutes(api, ctx);
+  registerProjectRoutes(api, ctx);
+  registerMaterialRoutes(api, ctx);
+  registerTestDataRoutes(api, ctx);
+  registerStudyRoutes(api, ctx);
+  registerRunRoutes(api, ctx);
+  registerCommentRoutes(api, ctx);
+  registerAuditRoutes(api, ctx);
+
+  const openApi = buildOpenApiDocument(registry, API_VERSION);
+  app.get('/api/openapi.json', (_req, res) => {
+    res.json(openApi);
+  });
+  app.use('/api', api.router);
+  app.use('/api', notFoundHandler);
+
+  serveWebApp(app, ctx.config.WEB_DIST);
+  app.use(notFoundHandler);
+  app.use(errorHandler(ctx.logger));
+  return { app, sessionMiddleware, passport };
+}
+
+/** The built single-page app, with every unknown non-API path answered by index.html (client routes). */
+function serveWebApp(app: Express, dist: string): void {
+  if (!dist) return;
+  const root = resolve(dist);
+  if (!existsSync(resolve(root, 'index.html'))) return;
+  app.use(express.static(root, { index: false, maxAge: '1h' }));
+  app.get(/^(?!\/api\/|\/socket\.io\/).*/, (_req, res) => {
+    res.sendFile(resolve(root, 'index.html'));
+  });
+}

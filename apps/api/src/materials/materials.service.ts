@@ -1,0 +1,148 @@
+import { UniqueConstraintError, type Sequelize } from 'sequelize';
+import type { MaterialParams } from '@phaseloop/shared';
+import { HttpError, notFound } from '../http/errors';
+import type { SessionUser } from '../auth/session-user';
+import { requireProject } from '../projects/projects.service';
+import { audit } from '../audit/audit.service';
+import { Material, MaterialVersion, type MaterialVersionStatus } from './materials.model';
+
+export interface MaterialVersionDto {
+  id: string;
+  materialId: string;
+  version: number;
+  status: MaterialVersionStatus;
+  params: MaterialParams;
+  provenance: Record<string, unknown>;
+  notes: string;
+  createdAt: string;
+  reviewedBy: string | null;
+  reviewedAt: string | null;
+  reviewReason: string;
+}
+
+export interface MaterialDto {
+  id: string;
+  projectId: string;
+  name: string;
+  description: string;
+  latest: MaterialVersionDto | null;
+}
+
+export function toVersionDto(v: MaterialVersion): MaterialVersionDto {
+  return {
+    id: v.id, materialId: v.materialId, version: v.version, status: v.status, params: v.params, provenance: v.provenance,
+    notes: v.notes, createdAt: v.createdAt.toISOString(), reviewedBy: v.reviewedBy ?? null,
+    reviewedAt: v.reviewedAt ? v.reviewedAt.toISOString() : null, reviewReason: v.reviewReason,
+  };
+}
+
+async function latestVersion(materialId: string): Promise<MaterialVersion | null> {
+  return MaterialVersion.findOne({ where: { materialId }, order: [['version', 'DESC']] });
+}
+
+function toMaterialDto(m: Material, latest: MaterialVersion | null): MaterialDto {
+  return { id: m.id, projectId: m.projectId, name: m.name, description: m.description, latest: latest ? toVersionDto(latest) : null };
+}
+
+export async function requireMaterial(user: SessionUser, id: string): Promise<Material> {
+  const m = await Material.findByPk(id);
+  if (!m) throw notFound('Material');
+  await requireProject(user, m.projectId).catch(() => {
+    throw notFound('Material');
+  });
+  return m;
+}
+
+export async function requireMaterialVersion(user: SessionUser, id: string): Promise<{ version: MaterialVersion; material: Material }> {
+  const version = await MaterialVersion.findByPk(id);
+  if (!version) throw notFound('Material version');
+  const material = await requireMaterial(user, version.materialId).catch(() => {
+    throw notFound('Material version');
+  });
+  return { version, material };
+}
+
+export async function listMaterials(user: SessionUser, projectId: string): Promise<MaterialDto[]> {
+  await requireProject(user, projectId);
+  const materials = await Material.findAll({ where: { projectId }, order: [['name', 'ASC']] });
+  return Promise.all(materials.map(async (m) => toMaterialDto(m, await latestVersion(m.id))));
+}
+
+export async function createMaterial(
+  sequelize: Sequelize,
+  user: SessionUser,
+  projectId: string,
+  input: { name: string; description: string; params: MaterialParams; provenance: Record<string, unknown>; notes: string },
+): Promise<MaterialDto> {
+  await requireProject(user, projectId);
+  try {
+    return await sequelize.transaction(async (transaction) => {
+      const m = await Material.create({ projectId, name: input.name, description: input.description, createdBy: user.id }, { transaction });
+      const v = await MaterialVersion.create(
+        { materialId: m.id, version: 1, params: input.params, provenance: input.provenance, notes: input.notes, createdBy: user.id },
+        { transaction },
+      );
+      await audit(sequelize, { userId: user.id, projectId, action: 'material.create', targetType: 'material', targetId: m.id, detail: { name: m.name } }, transaction);
+      return toMaterialDto(m, v);
+    });
+  } catch (err) {
+    if (err instanceof UniqueConstraintError) throw new HttpError(409, `This project already has a material named "${input.name}"`);
+    throw err;
+  }
+}
+
+export async function getMaterial(user: SessionUser, id: string): Promise<MaterialDto & { versions: MaterialVersionDto[] }> {
+  const m = await requireMaterial(user, id);
+  const versions = await MaterialVersion.findAll({ where: { materialId: id }, order: [['version', 'DESC']] });
+  return { ...toMaterialDto(m, versions[0] ?? null), versions: versions.map(toVersionDto) };
+}
+
+/** New draft version after the latest one; approved versions are never edited in place. */
+export async function addVersion(
+  sequelize: Sequelize,
+  user: SessionUser,
+  materialId: string,
+  input: { params: MaterialParams; provenance: Record<string, unknown>; notes: string },
+): Promise<MaterialVersionDto> {
+  const m = await requireMaterial(user, materialId);
+  const v = await sequelize.transaction(async (transaction) => {
+    // Lock the material row so two simultaneous saves cannot take the same number.
+    await Material.findByPk(materialId, { transaction, lock: transaction.LOCK.UPDATE });
+    const last = await MaterialVersion.max<number, MaterialVersion>('version', { where: { materialId }, transaction });
+    const created = await MaterialVersion.create({ materialId, version: (last ?? 0) + 1, ...input, createdBy: user.id }, { transaction });
+    await audit(sequelize, { userId: user.id, projectId: m.projectId, action: 'material.version-add', targetType: 'material-version', targetId: created.id, detail: { version: created.version } }, transaction);
+    return created;
+  });
+  return toVersionDto(v);
+}
+
+export async function updateDraft(
+  sequelize: Sequelize,
+  user: SessionUser,
+  versionId: string,
+  patch: { params?: MaterialParams; provenance?: Record<string, unknown>; notes?: string },
+): Promise<MaterialVersionDto> {
+  const { version, material } = await requireMaterialVersion(user, versionId);
+  if (version.status !== 'draft') throw new HttpError(409, `Version ${version.version} is ${version.status}; save a new version instead`);
+  await version.update(patch);
+  await audit(sequelize, { userId: user.id, projectId: material.projectId, action: 'material.version-edit', targetType: 'material-version', targetId: version.id });
+  return toVersionDto(version);
+}
+
+export async function reviewVersion(
+  sequelize: Sequelize,
+  user: SessionUser,
+  versionId: string,
+  decision: 'approve' | 'reject',
+  reason: string,
+): Promise<MaterialVersionDto> {
+  const { version, material } = await requireMaterialVersion(user, versionId);
+  if (version.status !== 'draft') throw new HttpError(409, `Version ${version.version} has already been ${version.status}`);
+  if (decision === 'reject' && !reason.trim()) throw new HttpError(422, 'Say why the version is rejected', 'invalid');
+  if (version.createdBy === user.id && user.role !== 'admin') {
+    throw new HttpError(403, 'A version is reviewed by someone other than its author');
+  }
+  await version.update({ status: decision === 'approve' ? 'approved' : 'rejected', reviewedBy: user.id, reviewedAt: new Date(), reviewReason: reason });
+  await audit(sequelize, { userId: user.id, projectId: material.projectId, action: `material.${decision}`, targetType: 'material-version', targetId: version.id, detail: { reason } });
+  return toVersionDto(version);
+}

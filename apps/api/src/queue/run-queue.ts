@@ -1,0 +1,57 @@
+/**
+ * The API's side of the job queue (pg-boss on the same PostgreSQL). The job carries only the run
+ * id; the worker reads the frozen snapshot from the runs table.
+ */
+import PgBoss from 'pg-boss';
+import { SOLVE_QUEUE, type SolveJob } from '@phaseloop/shared';
+
+export interface RunQueue {
+  /** Returns the job id. */
+  enqueue(runId: string): Promise<string>;
+  /** Removes a queued job; a running handler notices the run's cancel flag instead. */
+  cancel(jobId: string): Promise<void>;
+  stop(): Promise<void>;
+}
+
+/**
+ * Solve jobs are not retried automatically: a solve that failed once fails again the same way, and
+ * the analyst decides whether to re-run. pg-boss caps a job's expiry below 24 h.
+ */
+export const SOLVE_QUEUE_OPTIONS = { name: SOLVE_QUEUE, retryLimit: 0, expireInSeconds: 23 * 3600 } as const;
+
+export async function ensureSolveQueue(boss: PgBoss): Promise<void> {
+  // createQueue must come before send/work: sending to a missing queue returns null silently.
+  if (await boss.getQueue(SOLVE_QUEUE)) return;
+  try {
+    await boss.createQueue(SOLVE_QUEUE, { ...SOLVE_QUEUE_OPTIONS });
+  } catch (err) {
+    // Another process (API or worker) may have created it at the same moment.
+    if (!(await boss.getQueue(SOLVE_QUEUE))) throw err;
+  }
+}
+
+export async function startBoss(databaseUrl: string, options: { supervise: boolean }): Promise<PgBoss> {
+  const boss = new PgBoss({ connectionString: databaseUrl, schema: 'pgboss', max: 4, supervise: options.supervise, schedule: false });
+  boss.on('error', (err) => console.error('[pg-boss]', err.message));
+  await boss.start();
+  await ensureSolveQueue(boss);
+  return boss;
+}
+
+export async function createRunQueue(databaseUrl: string): Promise<RunQueue> {
+  const boss = await startBoss(databaseUrl, { supervise: true });
+  return {
+    async enqueue(runId) {
+      const data: SolveJob = { runId };
+      const id = await boss.send(SOLVE_QUEUE, data);
+      if (!id) throw new Error(`The queue ${SOLVE_QUEUE} refused the job`);
+      return id;
+    },
+    async cancel(jobId) {
+      await boss.cancel(SOLVE_QUEUE, jobId);
+    },
+    async stop() {
+      await boss.stop({ graceful: true, timeout: 5000, wait: true });
+    },
+  };
+}

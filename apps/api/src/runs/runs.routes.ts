@@ -1,0 +1,115 @@
+import { z } from 'zod';
+import { QueryTypes } from 'sequelize';
+import { RUN_STATUSES } from '@phaseloop/shared';
+import type { ApiRouter } from '../http/route';
+import type { AppContext } from '../context';
+import { idParams, uuid } from '../http/common-schemas';
+import { Run } from './runs.model';
+import { cancelRun, listStudyRuns, requestReview, requireRun, rerun, reviewRun, submitRun, toRunDto } from './runs.service';
+import { listArtifacts, listFrames, listIterations, streamArtifact } from './results.service';
+
+export const runDto = z.object({
+  id: uuid, projectId: uuid, studyId: uuid, sweepId: uuid.nullable(), number: z.number().int(), status: z.enum(RUN_STATUSES),
+  message: z.string(), solverVersion: z.string(), progress: z.record(z.string(), z.unknown()), queuePosition: z.number().int().nullable(),
+  submittedBy: z.string().nullable(), createdAt: z.string(), queuedAt: z.string().nullable(), startedAt: z.string().nullable(),
+  finishedAt: z.string().nullable(), cancelRequested: z.boolean(), reviewStatus: z.enum(['none', 'requested', 'approved', 'rejected']),
+  reviewReason: z.string(), snapshot: z.record(z.string(), z.unknown()).optional(),
+});
+
+export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
+  const tag = 'Runs';
+  api
+    .add({
+      method: 'post', path: '/studies/:id/runs', tag, access: 'run:submit', summary: 'Freeze the study and queue a run',
+      params: idParams, response: runDto,
+      handler: ({ user, params }) => submitRun(ctx, user, params.id),
+    })
+    .add({
+      method: 'get', path: '/studies/:id/runs', tag, access: 'user', summary: 'Runs of a study, newest first',
+      params: idParams, response: z.array(runDto),
+      handler: ({ user, params }) => listStudyRuns(ctx.sequelize, user, params.id),
+    })
+    .add({
+      method: 'get', path: '/runs/:id', tag, access: 'user', summary: 'One run, with its frozen snapshot',
+      params: idParams, response: runDto,
+      handler: async ({ user, params }) => toRunDto(ctx.sequelize, await requireRun(user, params.id), true),
+    })
+    .add({
+      method: 'post', path: '/runs/:id/cancel', tag, access: 'run:cancel', summary: 'Cancel a queued or running run', status: 200,
+      params: idParams, response: runDto,
+      handler: ({ user, params }) => cancelRun(ctx, user, params.id),
+    })
+    .add({
+      method: 'post', path: '/runs/:id/rerun', tag, access: 'run:submit', summary: 'Queue the same snapshot again',
+      params: idParams, response: runDto,
+      handler: ({ user, params }) => rerun(ctx, user, params.id),
+    })
+    .add({
+      method: 'post', path: '/runs/:id/request-review', tag, access: 'run:submit', summary: 'Ask a reviewer to approve a run', status: 200,
+      params: idParams, response: runDto,
+      handler: ({ user, params }) => requestReview(ctx, user, params.id),
+    })
+    .add({
+      method: 'post', path: '/runs/:id/review', tag, access: 'run:review', summary: 'Approve or reject a run', status: 200,
+      params: idParams, body: z.object({ decision: z.enum(['approve', 'reject']), reason: z.string().max(5000).default('') }), response: runDto,
+      handler: ({ user, params, body }) => reviewRun(ctx, user, params.id, body.decision, body.reason),
+    })
+    .add({
+      method: 'get', path: '/runs/:id/iterations', tag, access: 'user', summary: 'Convergence log (page with afterSeq)',
+      params: idParams, query: z.object({ afterSeq: z.coerce.number().int().min(-1).default(-1), limit: z.coerce.number().int().min(1).max(10_000).default(1000) }),
+      response: z.array(z.object({ seq: z.number(), segment: z.number(), increment: z.number(), iteration: z.number(), time: z.number(), residualNorm: z.number(), correctionNorm: z.number(), cutBacks: z.number() })),
+      handler: async ({ user, params, query }) => {
+        await requireRun(user, params.id);
+        return listIterations(ctx.sequelize, params.id, query.afterSeq, query.limit);
+      },
+    })
+    .add({
+      method: 'get', path: '/runs/:id/frames', tag, access: 'user', summary: 'Converged frames with their history values',
+      params: idParams,
+      response: z.array(z.object({ frame: z.number(), segment: z.number(), increment: z.number(), time: z.number(), history: z.record(z.string(), z.number()) })),
+      handler: async ({ user, params }) => {
+        await requireRun(user, params.id);
+        return listFrames(ctx.sequelize, params.id);
+      },
+    })
+    .add({
+      method: 'get', path: '/runs/:id/files', tag, access: 'user', summary: 'Result files of a run',
+      params: idParams,
+      response: z.array(z.object({ id: uuid, name: z.string(), contentType: z.string(), size: z.number(), complete: z.boolean(), createdAt: z.string() })),
+      handler: async ({ user, params }) => {
+        await requireRun(user, params.id);
+        return listArtifacts(ctx.sequelize, params.id);
+      },
+    })
+    .add({
+      method: 'get', path: '/runs/:id/files/:name', tag, access: 'user', summary: 'Download one result file', raw: true,
+      params: idParams.extend({ name: z.string().min(1).max(300) }),
+      handler: async ({ user, params, res }) => {
+        await requireRun(user, params.id);
+        await streamArtifact(ctx.pool, params.id, params.name, res);
+      },
+    })
+    .add({
+      method: 'get', path: '/queue', tag, access: 'user', summary: 'Queued and running runs I can see, and the workers',
+      response: z.object({
+        runs: z.array(runDto),
+        workers: z.array(z.object({ id: z.string(), hostname: z.string(), pid: z.number(), lastSeenAt: z.string(), currentRunId: z.string().nullable() })),
+      }),
+      handler: async ({ user }) => {
+        const active = await Run.findAll({ where: { status: ['queued', 'running'] }, order: [['queuedAt', 'ASC']] });
+        const visible: Run[] = [];
+        for (const r of active) {
+          if (user.role === 'admin' || (await requireRun(user, r.id).then(() => true, () => false))) visible.push(r);
+        }
+        const workers = await ctx.sequelize.query<{ id: string; hostname: string; pid: number; lastSeenAt: Date; currentRunId: string | null }>(
+          `SELECT id, hostname, pid, last_seen_at AS "lastSeenAt", current_run_id AS "currentRunId"
+             FROM workers WHERE last_seen_at > now() - interval '2 minutes' ORDER BY id`,
+          { type: QueryTypes.SELECT },
+        );
+        return {
+          runs: await Promise.all(visible.map((r) => toRunDto(ctx.sequelize, r))),
+          workers: workers.map((w) => ({ ...w, lastSeenAt: new Date(w.lastSeenAt).toISOString() })),
+        };
+      },
+    });
+}

@@ -1,0 +1,38 @@
+import { z } from 'zod';
+import type { ApiRouter } from '../http/route';
+import type { AppContext } from '../context';
+import { description, idParams, name, projectParams, uuid } from '../http/common-schemas';
+import { studyDefinitionEnvelope } from './study-definition';
+import { createStudy, listStudies, requireStudy, toStudyDto, updateStudy } from './studies.service';
+
+const studyDto = z.object({
+  id: uuid, projectId: uuid, name: z.string(), description: z.string(), definition: z.record(z.string(), z.unknown()),
+  revision: z.number().int(), createdAt: z.string(), updatedAt: z.string(),
+});
+
+export function registerStudyRoutes(api: ApiRouter, ctx: AppContext): void {
+  const tag = 'Studies';
+  api
+    .add({
+      method: 'get', path: '/projects/:projectId/studies', tag, access: 'user', summary: 'Studies of a project',
+      params: projectParams, response: z.array(studyDto),
+      handler: ({ user, params }) => listStudies(user, params.projectId),
+    })
+    .add({
+      method: 'post', path: '/projects/:projectId/studies', tag, access: 'study:write', summary: 'Create a study',
+      params: projectParams, body: z.object({ name, description, definition: studyDefinitionEnvelope }), response: studyDto,
+      handler: ({ user, params, body }) => createStudy(ctx.sequelize, user, params.projectId, body),
+    })
+    .add({
+      method: 'get', path: '/studies/:id', tag, access: 'user', summary: 'One study',
+      params: idParams, response: studyDto,
+      handler: async ({ user, params }) => toStudyDto(await requireStudy(user, params.id)),
+    })
+    .add({
+      method: 'patch', path: '/studies/:id', tag, access: 'study:write', summary: 'Edit a study (send the revision you edited)',
+      params: idParams,
+      body: z.object({ name: name.optional(), description: z.string().max(5000).optional(), definition: studyDefinitionEnvelope.optional(), revision: z.number().int().positive() }),
+      response: studyDto,
+      handler: ({ user, params, body }) => updateStudy(ctx.sequelize, user, params.id, body),
+    });
+}

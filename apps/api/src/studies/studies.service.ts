@@ -1,0 +1,84 @@
+import { Op, type Sequelize } from 'sequelize';
+import { HttpError, notFound } from '../http/errors';
+import type { SessionUser } from '../auth/session-user';
+import { requireProject } from '../projects/projects.service';
+import { audit } from '../audit/audit.service';
+import { Material, MaterialVersion } from '../materials/materials.model';
+import { Study } from './studies.model';
+import { materialVersionIdsOf, type StudyDefinition } from './study-definition';
+
+export interface StudyDto {
+  id: string;
+  projectId: string;
+  name: string;
+  description: string;
+  definition: StudyDefinition;
+  revision: number;
+  createdAt: string;
+  updatedAt: string;
+}
+
+export function toStudyDto(s: Study): StudyDto {
+  return {
+    id: s.id, projectId: s.projectId, name: s.name, description: s.description, definition: s.definition,
+    revision: s.revision, createdAt: s.createdAt.toISOString(), updatedAt: s.updatedAt.toISOString(),
+  };
+}
+
+export async function requireStudy(user: SessionUser, id: string): Promise<Study> {
+  const s = await Study.findByPk(id);
+  if (!s) throw notFound('Study');
+  await requireProject(user, s.projectId).catch(() => {
+    throw notFound('Study');
+  });
+  return s;
+}
+
+/** Every referenced material version must exist and belong to the study's project. */
+export async function checkMaterialsBelong(projectId: string, definition: StudyDefinition): Promise<MaterialVersion[]> {
+  const ids = materialVersionIdsOf(definition);
+  const versions = await MaterialVersion.findAll({ where: { id: { [Op.in]: ids } } });
+  const materials = await Material.findAll({ where: { id: { [Op.in]: versions.map((v) => v.materialId) }, projectId } });
+  const ok = new Set(materials.map((m) => m.id));
+  const missing = ids.filter((id) => !versions.some((v) => v.id === id && ok.has(v.materialId)));
+  if (missing.length) {
+    throw new HttpError(422, `Material version(s) not found in this project: ${missing.join(', ')}`, 'invalid', missing.map((id) => ({ path: 'definition.materials', message: `unknown material version ${id}` })));
+  }
+  return versions;
+}
+
+export async function listStudies(user: SessionUser, projectId: string): Promise<StudyDto[]> {
+  await requireProject(user, projectId);
+  return (await Study.findAll({ where: { projectId }, order: [['updatedAt', 'DESC']] })).map(toStudyDto);
+}
+
+export async function createStudy(
+  sequelize: Sequelize,
+  user: SessionUser,
+  projectId: string,
+  input: { name: string; description: string; definition: StudyDefinition },
+): Promise<StudyDto> {
+  await requireProject(user, projectId);
+  await checkMaterialsBelong(projectId, input.definition);
+  const s = await Study.create({ projectId, ...input, createdBy: user.id });
+  await audit(sequelize, { userId: user.id, projectId, action: 'study.create', targetType: 'study', targetId: s.id, detail: { name: s.name } });
+  return toStudyDto(s);
+}
+
+export async function updateStudy(
+  sequelize: Sequelize,
+  user: SessionUser,
+  id: string,
+  patch: { name?: string; description?: string; definition?: StudyDefinition; revision: number },
+): Promise<StudyDto> {
+  const s = await requireStudy(user, id);
+  // Optimistic concurrency: two analysts editing the same study must not silently overwrite.
+  if (patch.revision !== s.revision) {
+    throw new HttpError(409, `The study was changed by someone else (revision ${s.revision}); reload it first`, 'stale-revision');
+  }
+  if (patch.definition) await checkMaterialsBelong(s.projectId, patch.definition);
+  const { revision: _r, ...fields } = patch;
+  await s.update({ ...fields, revision: s.revision + 1 });
+  await audit(sequelize, { userId: user.id, projectId: s.projectId, action: 'study.update', targetType: 'study', targetId: s.id, detail: { revision: s.revision } });
+  return toStudyDto(s);
+}

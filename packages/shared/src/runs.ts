@@ -1,0 +1,96 @@
+/**
+ * The contract between the API (which queues runs), the worker (which solves them) and the web
+ * app (which watches them): run states, the queue's job payload and the live events.
+ */
+import { z } from 'zod';
+
+export const RUN_STATUSES = ['draft', 'queued', 'running', 'succeeded', 'failed', 'cancelled'] as const;
+export const runStatusSchema = z.enum(RUN_STATUSES);
+export type RunStatus = z.infer<typeof runStatusSchema>;
+
+/** States a run never leaves. */
+export const FINAL_RUN_STATUSES: readonly RunStatus[] = ['succeeded', 'failed', 'cancelled'];
+export function isFinalRunStatus(status: RunStatus): boolean {
+  return FINAL_RUN_STATUSES.includes(status);
+}
+
+/** pg-boss queue the API sends to and workers consume. */
+export const SOLVE_QUEUE = 'phaseloop-solve';
+
+/** The job payload is only the run id: the frozen snapshot is read from the database. */
+export const solveJobSchema = z.object({ runId: z.string().uuid() });
+export type SolveJob = z.infer<typeof solveJobSchema>;
+
+/** Socket.IO room that receives every event of one run. */
+export function runRoom(runId: string): string {
+  return `run:${runId}`;
+}
+
+/** Socket.IO event names (server → browser), and the browser's request to follow a run. */
+export const RUN_SOCKET_EVENTS = {
+  watch: 'run:watch',
+  unwatch: 'run:unwatch',
+  status: 'run:status',
+  iteration: 'run:iteration',
+  frame: 'run:frame',
+  log: 'run:log',
+} as const;
+
+export const runStatusEventSchema = z.object({
+  runId: z.string().uuid(),
+  status: runStatusSchema,
+  /** Plain words an analyst can act on (failures), or a short note. */
+  message: z.string().default(''),
+  /** Position in the queue (1 = next), for queued runs. */
+  queuePosition: z.number().int().positive().optional(),
+  at: z.string(),
+});
+export type RunStatusEvent = z.infer<typeof runStatusEventSchema>;
+
+/** Sent after every Newton iteration. */
+export const runIterationEventSchema = z.object({
+  runId: z.string().uuid(),
+  segment: z.number().int().nonnegative(),
+  increment: z.number().int().nonnegative(),
+  iteration: z.number().int().nonnegative(),
+  /** Analysis time at the end of the increment (s). */
+  time: z.number(),
+  /** Norms of the out-of-balance force and of the displacement correction (relative). */
+  residualNorm: z.number(),
+  correctionNorm: z.number(),
+  /** Number of increment cut-backs so far in this segment. */
+  cutBacks: z.number().int().nonnegative(),
+});
+export type RunIterationEvent = z.infer<typeof runIterationEventSchema>;
+
+/** Sent after every converged increment that the study's outputs ask to keep. */
+export const runFrameEventSchema = z.object({
+  runId: z.string().uuid(),
+  frame: z.number().int().nonnegative(),
+  segment: z.number().int().nonnegative(),
+  increment: z.number().int().nonnegative(),
+  time: z.number(),
+  /** Small scalar history values (e.g. reaction force, probe displacement, temperature). */
+  history: z.record(z.string(), z.number()),
+});
+export type RunFrameEvent = z.infer<typeof runFrameEventSchema>;
+
+export const runLogEventSchema = z.object({
+  runId: z.string().uuid(),
+  level: z.enum(['info', 'warn', 'error']),
+  message: z.string(),
+  at: z.string(),
+});
+export type RunLogEvent = z.infer<typeof runLogEventSchema>;
+
+export interface RunServerToClientEvents {
+  'run:status': (e: RunStatusEvent) => void;
+  'run:iteration': (e: RunIterationEvent) => void;
+  'run:frame': (e: RunFrameEvent) => void;
+  'run:log': (e: RunLogEvent) => void;
+}
+
+export interface RunClientToServerEvents {
+  'run:watch': (req: { runId: string }, ack: (res: { ok: boolean; message?: string }) => void) => void;
+  'run:unwatch': (req: { runId: string }) => void;
+}
