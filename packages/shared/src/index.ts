@@ -1,3 +1,2 @@
 export * from './materials';
 export * from './runs';
-export * from './model';
