@@ -19,12 +19,20 @@ export interface DirectSolverOptions {
   readonly symmetric: boolean;
   /** Optional node coordinates per unknown (x, y interleaved, length 2n) to guide the ordering. */
   readonly coordinates?: Float64Array;
+  /** Dimension of `coordinates` (2: x, y interleaved; 3: x, y, z interleaved). Default 2. */
+  readonly coordinateDimension?: 2 | 3;
 }
 
 export interface FactorStats {
   readonly nnzL: number;
   readonly flops: number;
   readonly supernodes: number;
+  /** Entries stored for the factors (explicit zeros from supernode amalgamation included). */
+  readonly storedEntries?: number;
+  /** Negative pivots of the last LDLᵀ factorisation (matrix inertia): a stable structure has none. */
+  readonly negativePivots?: number;
+  /** Tiny pivots replaced by static pivoting in the last LU factorisation. */
+  readonly perturbedPivots?: number;
 }
 
 /**
