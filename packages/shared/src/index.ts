@@ -1,3 +1,4 @@
 export * from './materials';
 export * from './runs';
 export * from './model';
+export * from './materialPoint';

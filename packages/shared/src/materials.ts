@@ -30,49 +30,71 @@ export const j2PlasticSchema = z.object({
   H_kin: z.number().min(0).default(0),
 });
 
-/** Phase-fraction model, Lagoudas et al. (2012), with inputs as a lab measures them. */
+// --- SMA blocks: messages say whether a value is missing or not a number, and name the field.
+const smaNumber = (what: string) =>
+  z.number({ error: (iss) => (iss.input === undefined ? `${what} is required` : `${what} must be a number`) });
+const smaPositive = (what: string) => smaNumber(what).positive({ error: `${what} must be > 0` });
+const smaFinite = (what: string) => smaNumber(what).finite({ error: `${what} must be finite` });
+const smaPoisson = smaNumber('nu (Poisson ratio)')
+  .gt(-1, { error: 'nu must be > -1' })
+  .lt(0.5, { error: 'nu must be < 0.5' });
+const smaExponent = (what: string) =>
+  smaNumber(what).gt(0, { error: `${what} must be > 0` }).max(1, { error: `${what} must be ≤ 1` }).default(1);
+
+/**
+ * Phase-fraction model, Lagoudas et al. (2012), with inputs as a lab measures them.
+ * T_ref is the temperature of zero thermal strain. With k_t = 0 the transformation strain is
+ * H_min at every stress (set H_min = H_sat for a constant one). Orderings (Mf0 < Ms0,
+ * As0 < Af0, As0 + Af0 > Ms0 + Mf0, similar C_M and C_A) are checked by the calibration in
+ * fe-core, which names the measured quantity to fix.
+ */
 export const lagoudas2012Schema = z.object({
   model: z.literal('lagoudas2012'),
-  E_A: positive('E_A (austenite modulus, MPa)'),
-  E_M: positive('E_M (martensite modulus, MPa)'),
-  nu: poisson,
-  alpha_A: finite('alpha_A').default(0),
-  alpha_M: finite('alpha_M').default(0),
-  T_ref: finite('T_ref').default(20),
-  Ms0: finite('Ms0 (°C)'),
-  Mf0: finite('Mf0 (°C)'),
-  As0: finite('As0 (°C)'),
-  Af0: finite('Af0 (°C)'),
-  C_M: positive('C_M (MPa/°C)'),
-  C_A: positive('C_A (MPa/°C)'),
-  sigma_star: positive('sigma_star (calibration stress, MPa)'),
-  H_min: z.number().min(0, { error: 'H_min must be ≥ 0' }),
-  H_sat: positive('H_sat (saturated transformation strain)'),
-  k_t: z.number().min(0, { error: 'k_t must be ≥ 0' }),
-  n1: z.number().gt(0).max(1).default(1),
-  n2: z.number().gt(0).max(1).default(1),
-  n3: z.number().gt(0).max(1).default(1),
-  n4: z.number().gt(0).max(1).default(1),
-  /** Optional J2 plastic strain: yield stresses of austenite and martensite (MPa), mixed by ξ. */
+  E_A: smaPositive('E_A (austenite modulus, MPa)'),
+  E_M: smaPositive('E_M (martensite modulus, MPa)'),
+  nu: smaPoisson,
+  alpha_A: smaFinite('alpha_A (austenite thermal expansion, 1/°C)').default(0),
+  alpha_M: smaFinite('alpha_M (martensite thermal expansion, 1/°C)').default(0),
+  T_ref: smaFinite('T_ref (°C, zero thermal strain)').default(20),
+  Ms0: smaFinite('Ms0 (°C)'),
+  Mf0: smaFinite('Mf0 (°C)'),
+  As0: smaFinite('As0 (°C)'),
+  Af0: smaFinite('Af0 (°C)'),
+  C_M: smaPositive('C_M (MPa/°C)'),
+  C_A: smaPositive('C_A (MPa/°C)'),
+  sigma_star: smaPositive('sigma_star (calibration stress, MPa)'),
+  H_min: smaNumber('H_min').min(0, { error: 'H_min must be ≥ 0' }).max(0.2, { error: 'H_min must be ≤ 0.2' }),
+  H_sat: smaPositive('H_sat (saturated transformation strain)').max(0.2, { error: 'H_sat must be ≤ 0.2' }),
+  k_t: smaNumber('k_t (1/MPa)').min(0, { error: 'k_t must be ≥ 0' }),
+  n1: smaExponent('n1'),
+  n2: smaExponent('n2'),
+  n3: smaExponent('n3'),
+  n4: smaExponent('n4'),
+  /** Optional J2 plastic strain: yield stresses of austenite and martensite (MPa), mixed by ξ. Not used by fe-core yet. */
   plasticity: z
-    .object({ sigma_y_A: positive('sigma_y_A'), sigma_y_M: positive('sigma_y_M'), H_iso: z.number().min(0).default(0) })
+    .object({ sigma_y_A: smaPositive('sigma_y_A'), sigma_y_M: smaPositive('sigma_y_M'), H_iso: z.number().min(0).default(0) })
     .optional(),
 });
 
-/** Transformation-strain model, Souza et al. (1998) / Auricchio & Petrini (2002, 2004). */
+/**
+ * Transformation-strain model, Souza et al. (1998) / Auricchio & Petrini (2002, 2004).
+ * τ(T) = beta·max(T − T0, 0); eps_L bounds the norm of the transformation strain tensor (the
+ * uniaxial transformation strain saturates at √(2/3)·eps_L); T_ref is the temperature of zero
+ * thermal strain.
+ */
 export const souzaAuricchioSchema = z.object({
   model: z.literal('souza-auricchio'),
-  E: positive('E (MPa)'),
-  nu: poisson,
-  alpha: finite('alpha').default(0),
-  T_ref: finite('T_ref').default(20),
-  h: positive('h (hardening, MPa)'),
-  beta: positive('beta (MPa/°C)'),
-  T0: finite('T0 (°C, temperature where the driving threshold vanishes)'),
-  R: positive('R (elastic domain radius, MPa)'),
-  eps_L: positive('eps_L (maximum transformation strain norm)'),
-  /** Optional tension–compression asymmetry (Lode-angle term); 0 = symmetric. */
-  asymmetry: z.number().min(0).lt(1).default(0),
+  E: smaPositive('E (MPa)'),
+  nu: smaPoisson,
+  alpha: smaFinite('alpha (thermal expansion, 1/°C)').default(0),
+  T_ref: smaFinite('T_ref (°C, zero thermal strain)').default(20),
+  h: smaPositive('h (hardening, MPa)'),
+  beta: smaPositive('beta (MPa/°C)'),
+  T0: smaFinite('T0 (°C, temperature where the driving threshold vanishes)'),
+  R: smaPositive('R (elastic domain radius, MPa)'),
+  eps_L: smaPositive('eps_L (maximum transformation strain norm)').max(0.2, { error: 'eps_L must be ≤ 0.2' }),
+  /** Tension–compression asymmetry (Lode-angle term): only 0 (symmetric) is available so far. */
+  asymmetry: smaNumber('asymmetry').min(0).lt(1).default(0),
 });
 
 export const materialParamsSchema = z.discriminatedUnion('model', [

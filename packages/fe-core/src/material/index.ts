@@ -7,6 +7,8 @@
 import type { MaterialParams } from '@phaseloop/shared';
 import { createLinearElastic } from './elastic';
 import { createJ2Plastic } from './j2';
+import { createLagoudas2012 } from './lagoudas2012';
+import { createSouzaAuricchio } from './souzaAuricchio';
 import type { Material } from './types';
 
 export * from './types';
@@ -17,6 +19,8 @@ type Factory = (params: MaterialParams) => Material<unknown>;
 const FACTORIES: Partial<Record<MaterialParams['model'], Factory>> = {
   'linear-elastic': (p) => createLinearElastic(p as Extract<MaterialParams, { model: 'linear-elastic' }>) as Material<unknown>,
   'j2-plastic': (p) => createJ2Plastic(p as Extract<MaterialParams, { model: 'j2-plastic' }>) as Material<unknown>,
+  lagoudas2012: (p) => createLagoudas2012(p as Extract<MaterialParams, { model: 'lagoudas2012' }>) as Material<unknown>,
+  'souza-auricchio': (p) => createSouzaAuricchio(p as Extract<MaterialParams, { model: 'souza-auricchio' }>) as Material<unknown>,
 };
 
 export class MaterialNotAvailableError extends Error {

@@ -1,7 +1,12 @@
 /**
- * Material-point driver: one integration point in a uniaxial stress state (σ22 = σ33 = 0, solved
- * by ReducedMaterial 'uniaxial'), driven along a path of legs in axial strain or axial stress and
- * temperature. Used by calibration, by the material preview and by tests.
+ * Material-point driver: one integration point in a uniaxial stress state (σ22 = σ33 = 0 by a local
+ * Newton iteration on the lateral strains, condensed tangent), driven along a path of legs in axial
+ * strain or axial stress and temperature. Used by calibration, by the material preview and tests.
+ *
+ * The lateral iteration is the same as ReducedMaterial 'uniaxial' (material/reduce.ts) but its
+ * tolerance is scaled by the elastic stress level C·|ε| rather than by the axial stress alone:
+ * at zero axial stress (free heating/cooling, unloaded states with residual strain) a tolerance
+ * relative to σ11 would ask for lateral stresses below round-off.
  *
  * Conventions
  *  - The point starts virgin and stress-free at the first path temperature. Strain is reported
@@ -13,8 +18,7 @@
  *  - A failed increment (local return map, or the stress-control iteration) is cut in halves up
  *    to MAX_CUTS times; only the requested increments produce rows.
  */
-import { ReducedMaterial, createReducedOutput, type ReducedOutput } from './reduce';
-import { createMaterialReport, type Material } from './types';
+import { KM, createMaterialPointOutput, createMaterialReport, type Material, type MaterialPointOutput } from './types';
 
 export type MaterialPointControl = 'strain' | 'stress';
 
@@ -70,13 +74,72 @@ export function runMaterialPoint<P>(material: Material<P>, driver: MaterialPoint
   return new MaterialPointRunner(material, driver).run();
 }
 
+/** σ22 = σ33 = 0 condensation of a 3D material; state = [material state | ε22, ε33]. */
+export class UniaxialPoint<P> {
+  readonly stateSize: number;
+  private readonly strain = new Float64Array(KM);
+  private readonly strainOld = new Float64Array(KM);
+  private readonly point: MaterialPointOutput = createMaterialPointOutput();
+  /** Axial stress, condensed axial tangent, and the local failure message. */
+  stress = 0;
+  tangent = 0;
+  ok = true;
+  message = '';
+
+  constructor(readonly material: Material<P>) {
+    this.stateSize = material.stateSize + 2;
+  }
+
+  initState(state: Float64Array, temperature: number): void {
+    this.material.initState(state, 0, temperature);
+    state[this.material.stateSize] = 0;
+    state[this.material.stateSize + 1] = 0;
+  }
+
+  update(strain: number, strainOld: number, temperature: number, temperatureOld: number, stateOld: Float64Array, state: Float64Array): boolean {
+    const m = this.material.stateSize;
+    const e = this.strain;
+    e.fill(0);
+    this.strainOld.fill(0);
+    e[0] = strain;
+    this.strainOld[0] = strainOld;
+    e[1] = this.strainOld[1] = stateOld[m];
+    e[2] = this.strainOld[2] = stateOld[m + 1];
+    const input = { strain: e, strainOld: this.strainOld, temperature, temperatureOld };
+    const { stress: sg, tangent: c } = this.point;
+    this.ok = false;
+    this.message = 'the uniaxial condition (zero lateral stress) did not converge';
+    for (let it = 0; it < 40; it++) {
+      this.material.update(input, stateOld, 0, state, 0, this.point);
+      if (!this.point.ok) {
+        this.message = this.point.message;
+        return false;
+      }
+      const a = c[7], b = c[8], d = c[13], f = c[14];
+      const level = Math.max(Math.abs(sg[0]), (Math.abs(c[0]) + Math.abs(a) + Math.abs(f)) * (Math.abs(e[0]) + Math.abs(e[1]) + Math.abs(e[2])), 1e-3);
+      const r1 = sg[1], r2 = sg[2];
+      const det = a * f - b * d;
+      if (Math.abs(r1) <= 1e-11 * level && Math.abs(r2) <= 1e-11 * level) {
+        this.stress = sg[0];
+        this.tangent = c[0] - (c[1] * (f * c[6] - b * c[12]) + c[2] * (-d * c[6] + a * c[12])) / det;
+        state[m] = e[1];
+        state[m + 1] = e[2];
+        this.ok = true;
+        this.message = '';
+        return true;
+      }
+      if (!(Math.abs(det) > 0)) break;
+      e[1] -= (f * r1 - b * r2) / det;
+      e[2] -= (-d * r1 + a * r2) / det;
+    }
+    return false;
+  }
+}
+
 class MaterialPointRunner<P> {
-  private readonly reduced: ReducedMaterial<P>;
+  private readonly point: UniaxialPoint<P>;
   private stateOld: Float64Array;
   private state: Float64Array;
-  private readonly out: ReducedOutput = createReducedOutput('uniaxial');
-  private readonly strainIn = new Float64Array(1);
-  private readonly strainOldIn = new Float64Array(1);
   private readonly report = createMaterialReport();
   private readonly rows: MaterialPointRow[] = [];
   private cur: PointState = { strain: 0, stress: 0, temperature: 0, tangent: 0 };
@@ -89,16 +152,16 @@ class MaterialPointRunner<P> {
     material: Material<P>,
     private readonly driver: MaterialPointPath,
   ) {
-    this.reduced = new ReducedMaterial(material, 'uniaxial');
-    this.stateOld = new Float64Array(this.reduced.stateSize);
-    this.state = new Float64Array(this.reduced.stateSize);
+    this.point = new UniaxialPoint(material);
+    this.stateOld = new Float64Array(this.point.stateSize);
+    this.state = new Float64Array(this.point.stateSize);
   }
 
   run(): MaterialPointResult {
     const path = this.driver.path;
     if (path.length === 0) return this.result(false, 'the path is empty');
     const T0 = path[0].temperature;
-    this.reduced.initState(this.stateOld, 0, T0);
+    this.point.initState(this.stateOld, T0);
     this.cur = { strain: 0, stress: 0, temperature: T0, tangent: 0 };
     // Stress-free start: find the thermal strain at T0 with zero axial stress.
     if (!this.tryStep(0, 'stress', T0)) return this.result(false, `no stress-free start at ${T0} °C: ${this.failure}`);
@@ -169,23 +232,17 @@ class MaterialPointRunner<P> {
     const swap = this.stateOld;
     this.stateOld = this.state;
     this.state = swap;
-    this.cur = { strain: this.strainIn[0], stress: this.out.stress[0], temperature: temp, tangent: this.out.tangent[0] };
+    this.cur = { strain: this.trialStrain, stress: this.point.stress, temperature: temp, tangent: this.point.tangent };
     return true;
   }
 
+  private trialStrain = 0;
+
   private evaluate(strain: number, temp: number): boolean {
-    this.strainIn[0] = strain;
-    this.strainOldIn[0] = this.cur.strain;
-    this.reduced.update(
-      { strain: this.strainIn, strainOld: this.strainOldIn, temperature: temp, temperatureOld: this.cur.temperature },
-      this.stateOld,
-      0,
-      this.state,
-      0,
-      this.out,
-    );
-    if (!this.out.ok) this.failure = this.out.message;
-    return this.out.ok;
+    this.trialStrain = strain;
+    const ok = this.point.update(strain, this.cur.strain, temp, this.cur.temperature, this.stateOld, this.state);
+    if (!ok) this.failure = this.point.message;
+    return ok;
   }
 
   /** Newton on the axial strain so that σ11 = target, safeguarded by a bracket. */
@@ -196,11 +253,11 @@ class MaterialPointRunner<P> {
     const tol = 1e-10 * Math.max(Math.abs(target), Math.abs(this.cur.stress), 1);
     for (let it = 0; it < MAX_STRESS_ITERATIONS; it++) {
       if (!this.evaluate(eps, temp)) return false;
-      const r = this.out.stress[0] - target;
+      const r = this.point.stress - target;
       if (Math.abs(r) <= tol) return true;
       if (r > 0) hi = Math.min(hi, eps);
       else lo = Math.max(lo, eps);
-      const k = this.out.tangent[0];
+      const k = this.point.tangent;
       let next = k > 0 ? eps - r / k : NaN;
       if (!(next > lo && next < hi)) {
         if (Number.isFinite(lo) && Number.isFinite(hi)) next = 0.5 * (lo + hi);
@@ -216,7 +273,7 @@ class MaterialPointRunner<P> {
   }
 
   private pushRow(time: number): void {
-    this.reduced.report(this.stateOld, 0, this.report);
+    this.point.material.report(this.stateOld, 0, this.report);
     this.rows.push({
       time,
       strain: this.cur.strain - this.strainOffset,
@@ -224,7 +281,7 @@ class MaterialPointRunner<P> {
       temperature: this.cur.temperature,
       xi: this.report.xi,
       transformationStrain: this.report.transformationStrain[0],
-      lateralStrain: this.stateOld[this.reduced.material.stateSize],
+      lateralStrain: this.stateOld[this.point.material.stateSize],
     });
   }
 }
