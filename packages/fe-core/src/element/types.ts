@@ -24,6 +24,7 @@
  *   the materials turn them into thermal strain.
  */
 import type { ReducedMaterial, StressState } from '../material/reduce';
+import type { QuadratureRule } from '../quadrature/gauss';
 
 export type ElementName = 'bar2' | 'beam2-eb' | 'beam2-timo' | 't3' | 'q4' | 'q4-eas' | 'q4-bbar' | 't6' | 'q8';
 
@@ -63,6 +64,17 @@ export interface BeamSection {
 }
 
 export type Section = ContinuumSection | BarSection | BeamSection;
+
+/** Isoparametric shape functions of a 2D continuum element on its reference cell. */
+export interface ShapeFunctions {
+  readonly nodes: number;
+  /** Reference cell: triangle {ξ, η ≥ 0, ξ + η ≤ 1} or square [−1, 1]². */
+  readonly cell: 'triangle' | 'quad';
+  /** Reference coordinates of the nodes, length nodes·2. */
+  readonly referenceNodes: Float64Array;
+  /** Writes N (length nodes) and dN (node-major dN/dξ, dN/dη, length nodes·2) at (ξ, η). */
+  evaluate(xi: number, eta: number, N: Float64Array, dN: Float64Array): void;
+}
 
 /** Everything an element needs for one evaluation. Arrays are element-local unless stated. */
 export interface ElementContext {
@@ -110,6 +122,10 @@ export interface ElementKernel {
    * for edge loads and boundary detection (2D continuum elements; empty for bars and beams).
    */
   readonly edges: readonly (readonly number[])[];
+  /** Continuum elements: shape functions and the rule whose points are the material points
+   *  (for body loads, nodal extrapolation of results, edge loads). Absent for bars and beams. */
+  readonly shape?: ShapeFunctions;
+  readonly rule?: QuadratureRule;
   /** Stress state the element's ReducedMaterial must be built with for this section. */
   stressState(section: Section): StressState;
   /** Material points per element (continuum: integration points; beam: Gauss points × fibres). */
