@@ -193,3 +193,55 @@ export function elementTangentError(kernel: ElementKernel, ctx: ElementContext, 
   u.set(u0);
   return worst / scale;
 }
+
+/** Mesh as node coordinates and connectivity. */
+export interface PlainMesh {
+  coords: number[];
+  elements: number[][];
+}
+
+/** Splits each quad [a, b, c, d] into triangles [a, b, c] and [a, c, d]. */
+export function splitQuads(mesh: PlainMesh): PlainMesh {
+  const elements: number[][] = [];
+  for (const [a, b, c, d] of mesh.elements) elements.push([a, b, c], [a, c, d]);
+  return { coords: [...mesh.coords], elements };
+}
+
+/**
+ * Adds a node at the middle of every (straight) edge, shared between neighbours: quads become
+ * Q8 (corners, then mid-edges 0–1, 1–2, 2–3, 3–0) and triangles T6 (mid-edges 0–1, 1–2, 2–0).
+ */
+export function addMidsideNodes(mesh: PlainMesh): PlainMesh {
+  const coords = [...mesh.coords];
+  const edgeNode = new Map<string, number>();
+  const mid = (a: number, b: number): number => {
+    const key = a < b ? `${a}-${b}` : `${b}-${a}`;
+    let n = edgeNode.get(key);
+    if (n === undefined) {
+      n = coords.length / 2;
+      coords.push((coords[2 * a] + coords[2 * b]) / 2, (coords[2 * a + 1] + coords[2 * b + 1]) / 2);
+      edgeNode.set(key, n);
+    }
+    return n;
+  };
+  const elements = mesh.elements.map((el) => {
+    const k = el.length;
+    const mids = el.map((a, i) => mid(a, el[(i + 1) % k]));
+    return [...el, ...mids];
+  });
+  return { coords, elements };
+}
+
+/** nx × ny rectangular quad mesh of [x0, x1] × [y0, y1], nodes row by row (x fastest). */
+export function rectangleMesh(nx: number, ny: number, x0: number, x1: number, y0: number, y1: number): PlainMesh {
+  const coords: number[] = [];
+  for (let j = 0; j <= ny; j++) for (let i = 0; i <= nx; i++) coords.push(x0 + ((x1 - x0) * i) / nx, y0 + ((y1 - y0) * j) / ny);
+  const elements: number[][] = [];
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const a = j * (nx + 1) + i;
+      elements.push([a, a + 1, a + nx + 2, a + nx + 1]);
+    }
+  }
+  return { coords, elements };
+}
