@@ -212,6 +212,8 @@ export const outputSchema = z.object({
   fields: z.array(fieldNameSchema).default(['displacement', 'reaction', 'stress', 'vonMises']),
   points: z.array(z.object({ name, x: coord, y: coord })).default([]),
   reactionSums: z.array(z.object({ name, set: name })).default([]),
+  /** Also write integration-point values of the fields to RESULT.json (large). */
+  integrationPoints: z.boolean().default(false),
 });
 
 export const solverOptionsSchema = z.object({
@@ -237,7 +239,7 @@ export const modelSchema = z.object({
   /** Temperature at the start of the first segment. */
   initialTemperature: temperatureFieldSchema.default(20),
   segments: z.array(segmentSchema).min(1, { error: 'a model needs at least one segment' }),
-  output: outputSchema.default({ fields: ['displacement', 'reaction', 'stress', 'vonMises'], points: [], reactionSums: [] }),
+  output: outputSchema.default({ fields: ['displacement', 'reaction', 'stress', 'vonMises'], points: [], reactionSums: [], integrationPoints: false }),
   solver: solverOptionsSchema.default({ forceTolerance: 1e-6, displacementTolerance: 1e-6, lineSearch: false }),
 });
 
