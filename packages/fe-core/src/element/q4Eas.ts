@@ -37,7 +37,7 @@ const NQ = rule.count;
 const NU = 8;
 const NA = 4;
 const NT = NU + NA;
-const MAX_LOCAL = 25;
+const MAX_LOCAL = 40;
 
 const g = new ContinuumGeometry(q4Shape);
 const W = new Float64Array(NQ * 4 * NT); // [B | G] per Gauss point
@@ -133,7 +133,10 @@ export const q4Eas: ElementKernel = {
       uaOld[NU + m] = ctx.stateOld[alphaAt + m];
       ua[NU + m] = ctx.stateOld[alphaAt + m];
     }
+    // Newton on h(α) = 0 with backtracking: plastic kinks can make plain Newton cycle.
     let converged = false;
+    let hPrev = Infinity;
+    let step = 1;
     for (let it = 0; it < MAX_LOCAL && !converged; it++) {
       full.fint.fill(0);
       full.K.fill(0);
@@ -148,6 +151,16 @@ export const q4Eas: ElementKernel = {
         if (!out.ok) return;
         accumulate(Wq, rows, NT, res.stress, res.tangent, dV[q], full, true, CB);
       }
+      let hNorm = 0;
+      for (let a = 0; a < NA; a++) hNorm = Math.max(hNorm, Math.abs(full.fint[NU + a]));
+      if (hNorm > hPrev && step > 1 / 64) {
+        // Residual grew: retreat halfway along the last Newton step and re-evaluate.
+        step /= 2;
+        for (let a = 0; a < NA; a++) ua[NU + a] -= step * dAlpha[a];
+        continue;
+      }
+      hPrev = hNorm;
+      step = 1;
       for (let a = 0; a < NA; a++) {
         for (let b = 0; b < NA; b++) Kaa[a * NA + b] = full.K[(NU + a) * NT + NU + b];
         dAlpha[a] = -full.fint[NU + a];
