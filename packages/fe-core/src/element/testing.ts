@@ -27,6 +27,8 @@ export interface SolveOptions {
   /** Nodal temperatures at the end of the increment. */
   temperature?: Float64Array;
   maxIterations?: number;
+  /** Residual tolerance relative to the largest nodal force (default 1e-10). */
+  tolerance?: number;
 }
 
 export interface SolveResult {
@@ -147,7 +149,7 @@ export class TestModel<P> {
       for (let d = 0; d < n; d++) scale = Math.max(scale, Math.abs(fint[d]), Math.abs(loads[d]));
       norm = Math.sqrt(norm);
       residuals.push(norm);
-      if (norm <= 1e-10 * Math.max(scale, 1e-30) || nf === 0) return { iterations: it, residuals, converged: true };
+      if (norm <= (options.tolerance ?? 1e-10) * Math.max(scale, 1e-30) || nf === 0) return { iterations: it, residuals, converged: true };
       for (let i = 0; i < nf; i++) for (let j = 0; j < nf; j++) Kff[i * nf + j] = K[free[i] * n + free[j]];
       if (!luFactor(nf, Kff, piv)) throw new Error('singular stiffness in test model');
       luSolve(nf, Kff, piv, r);
