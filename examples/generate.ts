@@ -80,7 +80,7 @@ write('bar-thermal.json', {
   ],
   initialTemperature: 20,
   segments: [{ name: 'heat', duration: 10, temperature: 120, increments: { initial: 0.25, min: 0.01, max: 0.5 } }],
-  output: { fields: ['displacement', 'reaction', 'temperature', 'stress'], reactionSums: [{ name: 'ends', set: 'ends' }] },
+  output: { fields: ['displacement', 'reaction', 'temperature', 'stress'], reactionSums: [{ name: 'leftEnd', set: 'start' }, { name: 'rightEnd', set: 'end' }] },
 });
 
 // Plane-stress cantilever strip of Q8 elements (used when no beam elements are wanted).

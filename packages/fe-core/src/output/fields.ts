@@ -5,7 +5,8 @@
  */
 import type { FieldName } from '@phaseloop/shared';
 import type { Problem } from '../assembly/problem';
-import { nodalAverage, pointScalar, principalField, vonMises, type Frame } from './frame';
+import { pointScalar, principalField, vonMises, type Frame } from './frame';
+import { recoverNodal } from './recovery';
 
 export interface NodalField {
   name: FieldName;
@@ -61,7 +62,7 @@ export function nodalField(problem: Problem, frame: Frame, name: FieldName): Nod
       return { name, components: ['T'], values: frame.temperature };
     default: {
       const p = pointField(frame, name)!;
-      return { name, components: p.components, values: nodalAverage(problem, p.values, p.components.length) };
+      return { name, components: p.components, values: recoverNodal(problem, p.values, p.components.length) };
     }
   }
 }

@@ -16,7 +16,8 @@
  */
 import { Assembler, type AssemblyStatus } from '../../assembly/assembler';
 import { describeDof, nodalTemperatures, type Problem } from '../../assembly/problem';
-import { frameHistory, nearestNode, reportPoints, type Frame } from '../../output/frame';
+import { nearestNode, reportPoints, type Frame } from '../../output/frame';
+import { frameHistory } from '../../output/history';
 import { ProfileLuSolver } from '../fallback';
 import { SingularMatrixError, type SparseDirectSolver } from '../linear/types';
 
