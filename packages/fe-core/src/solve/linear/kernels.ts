@@ -216,3 +216,117 @@ function ldltPanel(F: Float64Array, ld: number, m: number, p0: number, p1: numbe
   }
   return -1;
 }
+
+/** Outcome of a partial LU of one front. */
+export interface LuFrontResult {
+  /** Local index of a pivot column that vanished entirely (singular), or −1. */
+  singular: number;
+  /** Pivots replaced by ±√ε·scale because no usable pivot lay inside the supernode's rows. */
+  perturbed: number;
+}
+
+/** Prefer the diagonal unless another candidate row is this much larger (keeps the symmetric-like order stable). */
+export const LU_THRESHOLD = 0.1;
+
+/**
+ * Partial LU of a front with row pivoting restricted to the k pivot rows (the pattern stays the
+ * symmetric one computed by the analysis). F is m×m column-major (leading dimension ld); after the
+ * call F[0:k, 0:k] holds L11 (unit, strictly lower) and U11, F[k:m, 0:k] holds L21, F[0:k, k:m]
+ * U12 and F[k:m, k:m] the Schur complement. piv[j] is the local row swapped with row j at step j.
+ * A pivot column whose remaining entries all lie below floor[j] is reported as singular; a pivot
+ * that is only tiny inside the block is replaced (static pivoting) and counted, and the caller's
+ * iterative refinement recovers the accuracy.
+ */
+export function luFront(
+  F: Float64Array,
+  ld: number,
+  m: number,
+  k: number,
+  piv: Int32Array,
+  floor: Float64Array,
+  perturbation: Float64Array,
+  buf: PackBuffers,
+  result: LuFrontResult,
+): void {
+  result.singular = -1;
+  result.perturbed = 0;
+  for (let p0 = 0; p0 < k; p0 += PANEL) {
+    const p1 = Math.min(p0 + PANEL, k);
+    for (let j = p0; j < p1; j++) {
+      if (!luPivotStep(F, ld, m, k, j, p1, piv, floor, perturbation, result)) return;
+    }
+    const nr = m - p1;
+    if (nr <= 0) continue;
+    const kc = p1 - p0;
+    // U12 rows of the panel: forward substitution with the panel's unit lower triangle.
+    for (let c = p1; c < m; c++) {
+      const cc = c * ld;
+      for (let j = p0; j < p1; j++) {
+        const t = F[cc + j];
+        if (t === 0) continue;
+        const cj = j * ld;
+        for (let i = j + 1; i < p1; i++) F[cc + i] -= F[cj + i] * t;
+      }
+    }
+    buf.ensure(nr, kc);
+    packRows(F, p1 + p0 * ld, ld, nr, kc, buf.a, null);
+    packCols(F, p0 + p1 * ld, ld, nr, kc, buf.b);
+    gemmPacked(buf.a, nr, buf.b, nr, kc, F, p1 + p1 * ld, ld);
+  }
+}
+
+/** One column of the LU panel: pivot choice, row swap, scaling, update of the panel's later columns. */
+function luPivotStep(
+  F: Float64Array,
+  ld: number,
+  m: number,
+  k: number,
+  j: number,
+  p1: number,
+  piv: Int32Array,
+  floor: Float64Array,
+  perturbation: Float64Array,
+  result: LuFrontResult,
+): boolean {
+  const cj = j * ld;
+  let best = j;
+  let bmax = Math.abs(F[cj + j]);
+  for (let i = j + 1; i < k; i++) {
+    const a = Math.abs(F[cj + i]);
+    if (a > bmax) {
+      bmax = a;
+      best = i;
+    }
+  }
+  const choose = Math.abs(F[cj + j]) >= LU_THRESHOLD * bmax ? j : best;
+  piv[j] = choose;
+  if (choose !== j) {
+    for (let c = 0; c < m; c++) {
+      const o = c * ld;
+      const t = F[o + j];
+      F[o + j] = F[o + choose];
+      F[o + choose] = t;
+    }
+  }
+  let pv = F[cj + j];
+  if (!(Math.abs(pv) > floor[j])) {
+    let colmax = 0;
+    for (let i = j; i < m; i++) colmax = Math.max(colmax, Math.abs(F[cj + i]));
+    if (!(colmax > floor[j])) {
+      result.singular = j;
+      return false;
+    }
+    pv = pv < 0 ? -perturbation[j] : perturbation[j];
+    F[cj + j] = pv;
+    result.perturbed++;
+  }
+  const inv = 1 / pv;
+  for (let i = j + 1; i < m; i++) F[cj + i] *= inv;
+  for (let c = j + 1; c < p1; c++) {
+    const cc = c * ld;
+    const t = F[cc + j];
+    if (t === 0) continue;
+    for (let i = j + 1; i < m; i++) F[cc + i] -= F[cj + i] * t;
+  }
+  return true;
+}

@@ -40,8 +40,8 @@ export interface SupernodalOptions {
 
 /** Offsets and sizes shared by the multifrontal LDLᵀ and LU drivers. */
 export interface FrontLayout {
-  /** Start of each supernode's block in the factor storage. */
-  readonly lOffset: Float64Array;
+  /** Start of each supernode's block in the factor storage (int32: typed-array indices stay small integers). */
+  readonly lOffset: Int32Array;
   readonly factorSize: number;
   /** Largest (m + pad)² over the fronts. */
   readonly frontSize: number;
@@ -57,7 +57,8 @@ export interface FrontLayout {
  */
 export function frontLayout(sym: SupernodalSymbolic, packedUpdates: boolean, blocks: 1 | 2): FrontLayout {
   const { nsuper, superStart, rowStart, childStart, children } = sym;
-  const lOffset = new Float64Array(nsuper + 1);
+  const lOffset = new Int32Array(nsuper + 1);
+  let total = 0;
   const updSize = new Float64Array(nsuper);
   let frontSize = 0;
   let sp = 0;
@@ -69,7 +70,9 @@ export function frontLayout(sym: SupernodalSymbolic, packedUpdates: boolean, blo
     const r = rowStart[s + 1] - rowStart[s];
     const m = k + r;
     // LU keeps the m×k column block and the k×r row block; LDLᵀ the m×k block.
-    lOffset[s + 1] = lOffset[s] + (blocks === 1 ? m * k : m * k + k * r);
+    total += blocks === 1 ? m * k : m * k + k * r;
+    if (total > 2 ** 31 - 1) throw new Error('factor storage exceeds 2³¹ entries: use an iterative solver');
+    lOffset[s + 1] = total;
     frontSize = Math.max(frontSize, (m + FRONT_PAD) * (m + FRONT_PAD));
     maxRows = Math.max(maxRows, m);
     maxCols = Math.max(maxCols, k);
@@ -90,7 +93,7 @@ export class SupernodalLdlt implements SparseDirectSolver {
   private L = new Float64Array(0);
   private front = new Float64Array(0);
   private stack = new Float64Array(0);
-  private stackOff = new Float64Array(0);
+  private stackOff = new Int32Array(0);
   private floors = new Float64Array(0);
   private floorLocal = new Float64Array(0);
   private work = new Float64Array(0);
@@ -110,6 +113,11 @@ export class SupernodalLdlt implements SparseDirectSolver {
       relax: this.options.relax,
       ordering: this.options.ordering,
     });
+    this.analyseFromSymbolic(A, sym);
+  }
+
+  /** Analysis with a symbolic structure computed elsewhere (the factory inspects it first). */
+  analyseFromSymbolic(A: CsrMatrix, sym: SupernodalSymbolic): void {
     this.sym = sym;
     this.tpos = transposeIndex(A);
     this.amap = assemblyMap(A, sym, true);
@@ -119,7 +127,7 @@ export class SupernodalLdlt implements SparseDirectSolver {
     this.L = new Float64Array(layout.factorSize);
     this.front = new Float64Array(layout.frontSize);
     this.stack = new Float64Array(Math.max(1, layout.stackSize));
-    this.stackOff = new Float64Array(sym.nsuper);
+    this.stackOff = new Int32Array(sym.nsuper);
     this.floors = new Float64Array(A.n);
     this.floorLocal = new Float64Array(layout.maxCols);
     this.work = new Float64Array(A.n);
@@ -179,14 +187,9 @@ export class SupernodalLdlt implements SparseDirectSolver {
         );
       }
       for (let j = 0; j < k; j++) if (F[j * (ld + 1)] < 0) negative++;
-      const lo = lOffset[s];
-      for (let j = 0; j < k; j++) L.set(F.subarray(j * ld, j * ld + m), lo + j * m);
+      copyPivotColumns(F, ld, m, k, L, lOffset[s]);
       stackOff[s] = sp;
-      for (let j = 0; j < r; j++) {
-        const c = (k + j) * ld;
-        U.set(F.subarray(c + k + j, c + m), sp);
-        sp += r - j;
-      }
+      sp = pushUpdateLower(F, ld, m, k, U, sp);
     }
     this.negative = negative;
     this.factored = true;
@@ -289,6 +292,24 @@ export class SupernodalLdlt implements SparseDirectSolver {
       unitLowerTransposedSolve(L, o, m, k, y, f);
     }
   }
+}
+
+/** L[lo + i + j·m] = F[i + j·ld] for the k pivot columns (m rows each). */
+function copyPivotColumns(F: Float64Array, ld: number, m: number, k: number, L: Float64Array, lo: number): void {
+  for (let j = 0; j < k; j++) {
+    const src = j * ld;
+    const dst = lo + j * m;
+    for (let i = j; i < m; i++) L[dst + i] = F[src + i];
+  }
+}
+
+/** Copies the lower triangle of the update matrix F[k:m, k:m] onto the stack, packed by columns. */
+function pushUpdateLower(F: Float64Array, ld: number, m: number, k: number, U: Float64Array, sp: number): number {
+  for (let j = k; j < m; j++) {
+    const c = j * ld;
+    for (let i = j; i < m; i++) U[sp++] = F[c + i];
+  }
+  return sp;
 }
 
 /** F[rel[i], rel[j]] += U[i, j] for the packed lower update matrix of one child. */
