@@ -8,15 +8,31 @@
  * or measured properties the calibration rejects) — the message names the field.
  */
 import { readFileSync, writeFileSync } from 'node:fs';
+import { pathToFileURL } from 'node:url';
 import { describeDriverIssues, materialPointDriverSchema } from '@phaseloop/shared';
 import { createMaterial } from '../material/index';
 import { materialPointCsv, runMaterialPoint } from '../material/materialPoint';
 
 const USAGE = 'usage: npm run material-point -- DRIVER.json [--out CURVE.csv]';
 
+/** Thrown to end the run with an exit code; main() turns it into process.exit. */
+class Exit extends Error {
+  constructor(
+    readonly code: number,
+    readonly lines: string[],
+  ) {
+    super(lines.join('\n'));
+  }
+}
+
 function fail(code: number, lines: string[]): never {
-  for (const l of lines) process.stderr.write(`${l}\n`);
-  process.exit(code);
+  throw new Exit(code, lines);
+}
+
+export interface CliResult {
+  code: number;
+  stdout: string;
+  stderr: string;
 }
 
 function parseArgs(argv: string[]): { driver: string; out: string | undefined } {
@@ -36,8 +52,20 @@ function parseArgs(argv: string[]): { driver: string; out: string | undefined } 
   return { driver, out };
 }
 
-function main(): void {
-  const args = parseArgs(process.argv.slice(2));
+/** The whole command without touching process state (testable in-process). */
+export function materialPointCli(argv: string[]): CliResult {
+  const io = { stdout: '', stderr: '' };
+  try {
+    run(argv, io);
+    return { code: 0, ...io };
+  } catch (e) {
+    if (e instanceof Exit) return { code: e.code, stdout: io.stdout, stderr: io.stderr + e.lines.map((l) => `${l}\n`).join('') };
+    throw e;
+  }
+}
+
+function run(argv: string[], io: { stdout: string; stderr: string }): void {
+  const args = parseArgs(argv);
   let raw: unknown;
   try {
     raw = JSON.parse(readFileSync(args.driver, 'utf8'));
@@ -56,10 +84,17 @@ function main(): void {
   const result = runMaterialPoint(material, driver);
   const csv = materialPointCsv(result.rows);
   if (args.out) writeFileSync(args.out, csv);
-  else process.stdout.write(csv);
+  else io.stdout += csv;
   const summary = `${result.rows.length} rows, ${result.subIncrements} sub-increments, ${result.cutBacks} increments cut back`;
   if (!result.ok) fail(1, [`stopped: ${result.message}`, summary]);
-  if (args.out) process.stderr.write(`wrote ${args.out}: ${summary}\n`);
+  if (args.out) io.stderr += `wrote ${args.out}: ${summary}\n`;
 }
 
-main();
+function main(): void {
+  const r = materialPointCli(process.argv.slice(2));
+  process.stdout.write(r.stdout);
+  process.stderr.write(r.stderr);
+  process.exitCode = r.code;
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main();

@@ -117,7 +117,7 @@ describe('Souza–Auricchio: non-proportional loading reorients the transformati
     let old = new Float64Array(SOUZA_STATE_SIZE);
     let state = new Float64Array(SOUZA_STATE_SIZE);
     const out = createMaterialPointOutput();
-    let strainOld = new Float64Array(6);
+    let strainOld: Float64Array = new Float64Array(6);
     const go = (strain: Float64Array) => {
       m.update({ strain, strainOld, temperature: T, temperatureOld: T }, old, 0, state, 0, out);
       expect(out.ok, out.message).toBe(true);
