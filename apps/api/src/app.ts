@@ -10,16 +10,16 @@ import { resolve } from 'node:path';
 import type { AppContext } from './context';
 import { ApiRouter } from './http/route';
 import { createRegistry, buildOpenApiDocument } from './http/openapi';
-import { errorHandler, HttpError, notFoundHandler } from './http/errors';
+import { errorBody, errorHandler, notFoundHandler } from './http/errors';
+import { csrfProtection } from './auth/csrf';
 import { createPassport, createSessionMiddleware, type PassportInstance } from './auth/session';
 import { registerAuthRoutes } from './auth/auth.routes';
-import { registerUserRoutes } from './users/users.routes';
+import { registerAdminRoutes } from './admin/admin.routes';
 import { registerProjectRoutes } from './projects/projects.routes';
 import { registerMaterialRoutes } from './materials/materials.routes';
 import { registerStudyRoutes } from './studies/studies.routes';
 import { registerRunRoutes } from './runs/runs.routes';
 import { registerCommentRoutes } from './comments/comments.routes';
-import { registerAuditRoutes } from './audit/audit.routes';
 import { registerTestDataRoutes } from './testdata/testdata.routes';
 import { registerHealthRoutes } from './health/health.routes';
 import { API_VERSION } from './version';
@@ -31,29 +31,11 @@ export interface BuiltApp {
   passport: PassportInstance;
 }
 
-/**
- * Cookie sessions are open to cross-site request forgery; browsers send an Origin header with
- * every cross-site POST, so a mutating request whose Origin is not this host is refused.
- */
-const sameOriginForWrites: RequestHandler = (req, _res, next) => {
-  if (req.method === 'GET' || req.method === 'HEAD' || req.method === 'OPTIONS') return next();
-  const origin = req.headers.origin;
-  if (!origin) return next();
-  let host: string;
-  try {
-    host = new URL(origin).host;
-  } catch {
-    return next(new HttpError(403, 'Cross-site request refused'));
-  }
-  if (host !== req.headers.host) return next(new HttpError(403, 'Cross-site request refused'));
-  next();
-};
-
 export function createApp(ctx: AppContext): BuiltApp {
   const app = express();
   const registry = createRegistry();
   const passport = createPassport();
-  const sessionMiddleware = createSessionMiddleware(ctx.pool, ctx.config.SESSION_SECRET, ctx.config.PUBLIC_URL.startsWith('https:'));
+  const sessionMiddleware = createSessionMiddleware(ctx.pool, ctx.config.SESSION_SECRET, ctx.config.APP_URL.startsWith('https:'), ctx.config.SESSION_IDLE_MINUTES);
 
   app.disable('x-powered-by');
   app.set('query parser', 'extended');
@@ -74,25 +56,41 @@ export function createApp(ctx: AppContext): BuiltApp {
     }),
   );
   app.use(express.json({ limit: '10mb' }));
-  app.use(sameOriginForWrites);
   app.use(sessionMiddleware);
   app.use(passport.initialize());
   app.use(passport.session());
+  app.use('/api', csrfProtection);
 
-  const authLimiter = rateLimit({ windowMs: 15 * 60_000, limit: ctx.config.LOGIN_RATE_LIMIT, standardHeaders: 'draft-8', legacyHeaders: false });
-  app.use(['/api/auth/login', '/api/auth/password-reset'], authLimiter);
+  // Failed sign-ins per address and minute; successful ones do not count.
+  const loginLimiter = rateLimit({
+    windowMs: 60_000,
+    limit: ctx.config.LOGIN_FAILURES_PER_MINUTE,
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, res) => {
+      res.status(429).json(errorBody('rate_limited', 'Too many failed sign-ins; wait a minute and try again'));
+    },
+  });
+  app.use('/api/auth/login', loginLimiter);
+  // Reset mails cost a mail each: a looser cap on requests of any outcome.
+  app.use('/api/auth/password-reset/request', rateLimit({
+    windowMs: 60_000, limit: 20, standardHeaders: 'draft-8', legacyHeaders: false,
+    handler: (_req, res) => {
+      res.status(429).json(errorBody('rate_limited', 'Too many reset requests; wait a minute and try again'));
+    },
+  }));
 
   const api = new ApiRouter('/api', registry);
-  registerHealthRoutes(api, ctx);
+  registerHealthRoutes(api, ctx, API_VERSION);
   registerAuthRoutes(api, ctx, passport);
-  registerUserRoutes(api, ctx);
+  registerAdminRoutes(api, ctx);
   registerProjectRoutes(api, ctx);
   registerMaterialRoutes(api, ctx);
   registerTestDataRoutes(api, ctx);
   registerStudyRoutes(api, ctx);
   registerRunRoutes(api, ctx);
   registerCommentRoutes(api, ctx);
-  registerAuditRoutes(api, ctx);
 
   const openApi = buildOpenApiDocument(registry, API_VERSION);
   app.get('/api/openapi.json', (_req, res) => {

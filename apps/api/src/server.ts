@@ -13,7 +13,7 @@ import { initModels } from './db/models';
 import { createRunQueue } from './queue/run-queue';
 import { LateBroadcaster, socketBroadcaster } from './realtime/broadcaster';
 import { attachSocketServer } from './realtime/socket';
-import { createMailer } from './mail/mailer';
+import { createMailer, isLoopbackHost, type SmtpSettings } from './mail/mailer';
 import { createApp } from './app';
 import type { AppContext } from './context';
 import { solverVersion } from './version';
@@ -22,6 +22,11 @@ export interface RunningServer {
   url: string;
   ctx: AppContext;
   close(): Promise<void>;
+}
+
+export function mailSettings(config: Config): SmtpSettings | null {
+  if (!config.SMTP_HOST) return null;
+  return { host: config.SMTP_HOST, port: config.SMTP_PORT, from: config.MAIL_FROM, ignoreTLS: isLoopbackHost(config.SMTP_HOST) };
 }
 
 export async function startApiServer(config: Config): Promise<RunningServer> {
@@ -34,7 +39,7 @@ export async function startApiServer(config: Config): Promise<RunningServer> {
   const broadcaster = new LateBroadcaster();
   const ctx: AppContext = {
     config, sequelize, pool, logger, queue, broadcaster,
-    mailer: createMailer(sequelize, config.SMTP_URL, config.MAIL_FROM),
+    mailer: createMailer(mailSettings(config), logger),
     solverVersion: solverVersion(),
   };
   const built = createApp(ctx);

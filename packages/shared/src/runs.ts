@@ -4,14 +4,14 @@
  */
 import { z } from 'zod';
 
-export const RUN_STATUSES = ['draft', 'queued', 'running', 'succeeded', 'failed', 'cancelled'] as const;
-export const runStatusSchema = z.enum(RUN_STATUSES);
-export type RunStatus = z.infer<typeof runStatusSchema>;
+export const RUN_STATES = ['draft', 'queued', 'running', 'succeeded', 'failed', 'cancelled'] as const;
+export const runStateSchema = z.enum(RUN_STATES);
+export type RunState = z.infer<typeof runStateSchema>;
 
 /** States a run never leaves. */
-export const FINAL_RUN_STATUSES: readonly RunStatus[] = ['succeeded', 'failed', 'cancelled'];
-export function isFinalRunStatus(status: RunStatus): boolean {
-  return FINAL_RUN_STATUSES.includes(status);
+export const FINAL_RUN_STATES: readonly RunState[] = ['succeeded', 'failed', 'cancelled'];
+export function isFinalRunState(state: RunState): boolean {
+  return FINAL_RUN_STATES.includes(state);
 }
 
 /** pg-boss queue the API sends to and workers consume. */
@@ -38,7 +38,7 @@ export const RUN_SOCKET_EVENTS = {
 
 export const runStatusEventSchema = z.object({
   runId: z.string().uuid(),
-  status: runStatusSchema,
+  state: runStateSchema,
   /** Plain words an analyst can act on (failures), or a short note. */
   message: z.string().default(''),
   /** Position in the queue (1 = next), for queued runs. */

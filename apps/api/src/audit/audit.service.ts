@@ -28,35 +28,40 @@ export async function audit(sequelize: Sequelize, entry: AuditEntry, transaction
   );
 }
 
-export interface AuditRow {
-  id: number;
-  at: string;
-  userId: string | null;
-  userName: string | null;
-  projectId: string | null;
+export interface AuditDto {
+  id: string;
+  actor: { id: string; name: string; email: string } | null;
   action: string;
-  targetType: string;
-  targetId: string;
-  detail: Record<string, unknown>;
+  /** `type:id`, e.g. `run:3f…`. */
+  target: string | null;
+  details: Record<string, unknown>;
+  createdAt: string;
 }
 
 export async function listAudit(
   sequelize: Sequelize,
-  filter: { projectId?: string; projectIds?: string[]; limit: number; before?: number },
-): Promise<AuditRow[]> {
+  filter: { projectId?: string; limit: number; before?: number },
+): Promise<AuditDto[]> {
   const where: string[] = [];
   if (filter.projectId) where.push('a.project_id = :projectId');
-  if (filter.projectIds) where.push('a.project_id = ANY(CAST(:projectIds AS uuid[]))');
   if (filter.before) where.push('a.id < :before');
-  return sequelize.query<AuditRow>(
-    `SELECT a.id, a.at, a.user_id AS "userId", u.name AS "userName", a.project_id AS "projectId", a.action,
+  const rows = await sequelize.query<{
+    id: number; at: Date; userId: string | null; userName: string | null; userEmail: string | null;
+    action: string; targetType: string; targetId: string; detail: Record<string, unknown>;
+  }>(
+    `SELECT a.id, a.at, a.user_id AS "userId", u.name AS "userName", u.email AS "userEmail", a.action,
             a.target_type AS "targetType", a.target_id AS "targetId", a.detail
        FROM audit_log a LEFT JOIN users u ON u.id = a.user_id
       ${where.length ? 'WHERE ' + where.join(' AND ') : ''}
       ORDER BY a.id DESC LIMIT :limit`,
-    {
-      replacements: { projectId: filter.projectId, projectIds: filter.projectIds ? `{${filter.projectIds.join(',')}}` : null, limit: filter.limit, before: filter.before },
-      type: QueryTypes.SELECT,
-    },
+    { replacements: { projectId: filter.projectId ?? null, limit: filter.limit, before: filter.before ?? null }, type: QueryTypes.SELECT },
   );
+  return rows.map((r) => ({
+    id: String(r.id),
+    actor: r.userId ? { id: r.userId, name: r.userName ?? '', email: r.userEmail ?? '' } : null,
+    action: r.action,
+    target: r.targetType ? `${r.targetType}:${r.targetId}` : null,
+    details: r.detail,
+    createdAt: new Date(r.at).toISOString(),
+  }));
 }

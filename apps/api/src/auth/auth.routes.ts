@@ -3,24 +3,25 @@ import type { Request } from 'express';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { HttpError } from '../http/errors';
-import { ROLES, PERMISSIONS, permissionsOf } from './permissions';
+import { ROLES } from './permissions';
 import { MIN_PASSWORD_LENGTH } from './password';
 import { toSessionUser, type PassportInstance } from './session';
 import type { SessionUser } from './session-user';
-import { acceptInvitation, requestPasswordReset, resetPassword } from '../users/users.service';
+import { csrfTokenFor } from './csrf';
+import { User } from '../users/users.model';
+import { acceptInvitation, membershipsOf, previewInvitation, requestPasswordReset, resetPassword, toUserDto } from '../users/users.service';
 import { audit } from '../audit/audit.service';
 
-const meDto = z.object({
-  id: z.string(), email: z.string(), name: z.string(), role: z.enum(ROLES), permissions: z.array(z.enum(PERMISSIONS)),
+export const userDto = z.object({
+  id: z.string(), email: z.string(), name: z.string(), isAdmin: z.boolean(), disabled: z.boolean(),
+  createdAt: z.string(), lastLoginAt: z.string().nullable(),
 });
-const password = z.string().min(MIN_PASSWORD_LENGTH, { error: `Use at least ${MIN_PASSWORD_LENGTH} characters` }).max(200);
-
-function me(user: SessionUser): z.infer<typeof meDto> {
-  return { ...user, permissions: permissionsOf(user.role) };
-}
+export const membershipDto = z.object({ projectId: z.string(), projectName: z.string(), role: z.enum(ROLES) });
+export const password = z.string().min(MIN_PASSWORD_LENGTH, { error: `Use at least ${MIN_PASSWORD_LENGTH} characters` }).max(200);
+const token = z.string().min(10).max(200);
 
 function logIn(req: Request, user: SessionUser): Promise<void> {
-  // Regenerate the session id at sign-in so a planted cookie cannot be reused (session fixation).
+  // A new session id at sign-in, so a cookie planted before cannot ride along (session fixation).
   return new Promise((resolve, reject) => {
     req.session.regenerate((err) => {
       if (err) return reject(err);
@@ -31,60 +32,85 @@ function logIn(req: Request, user: SessionUser): Promise<void> {
 
 function authenticateLocal(passport: PassportInstance, req: Request): Promise<SessionUser> {
   return new Promise((resolve, reject) => {
-    passport.authenticate('local', (err: unknown, user: SessionUser | false, info?: { message?: string }) => {
+    passport.authenticate('local', (err: unknown, user: SessionUser | false) => {
       if (err) return reject(err);
-      if (!user) return reject(new HttpError(401, info?.message ?? 'E-mail or password is wrong', 'bad-credentials'));
+      // One message whether the account exists or not.
+      if (!user) return reject(new HttpError(401, 'E-mail or password is wrong', 'unauthenticated'));
       resolve(user);
     })(req, req.res!, () => undefined);
   });
 }
 
+async function signedInUser(id: string): Promise<z.infer<typeof userDto>> {
+  const user = await User.findByPk(id);
+  if (!user) throw new HttpError(401, 'Please sign in');
+  return toUserDto(user);
+}
+
 export function registerAuthRoutes(api: ApiRouter, ctx: AppContext, passport: PassportInstance): void {
   const tag = 'Sign-in';
+  const mail = { sequelize: ctx.sequelize, mailer: ctx.mailer, appUrl: ctx.config.APP_URL };
   api
     .add({
+      method: 'get', path: '/auth/csrf', tag, access: 'public', summary: 'The CSRF token to send as x-csrf-token on writes',
+      response: z.object({ token: z.string() }),
+      handler: ({ req }) => ({ token: csrfTokenFor(req) }),
+    })
+    .add({
       method: 'post', path: '/auth/login', tag, access: 'public', summary: 'Sign in (sets the session cookie)', status: 200,
-      body: z.object({ email: z.string().min(1), password: z.string().min(1) }), response: meDto,
+      body: z.object({ email: z.string().min(1).max(320), password: z.string().min(1).max(200) }), response: z.object({ user: userDto }),
       handler: async ({ req }) => {
         const user = await authenticateLocal(passport, req);
         await logIn(req, user);
+        await User.update({ lastLoginAt: new Date() }, { where: { id: user.id } });
         await audit(ctx.sequelize, { userId: user.id, action: 'user.login', targetType: 'user', targetId: user.id });
-        return me(user);
+        return { user: await signedInUser(user.id) };
       },
     })
     .add({
       method: 'post', path: '/auth/logout', tag, access: 'public', summary: 'Sign out', status: 204,
-      handler: async ({ req }) => {
+      handler: async ({ req, res }) => {
         await new Promise<void>((resolve, reject) => req.logOut((err) => (err ? reject(err) : resolve())));
         await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+        res.clearCookie('phaseloop.sid');
       },
     })
     .add({
-      method: 'get', path: '/auth/me', tag, access: 'user', summary: 'Who am I, and what may I do',
-      response: meDto, handler: ({ user }) => me(user),
+      method: 'get', path: '/auth/me', tag, access: 'user', summary: 'Who am I, and my project roles',
+      response: z.object({ user: userDto, memberships: z.array(membershipDto) }),
+      handler: async ({ user }) => ({
+        user: await signedInUser(user.id),
+        memberships: (await membershipsOf(ctx.sequelize, [user.id])).get(user.id) ?? [],
+      }),
     })
     .add({
-      method: 'post', path: '/auth/invitations/accept', tag, access: 'public', summary: 'Accept an invitation: set a password and sign in', status: 200,
-      body: z.object({ token: z.string().min(10), password }), response: meDto,
-      handler: async ({ req, body }) => {
-        const user = toSessionUser(await acceptInvitation(ctx.sequelize, body.token, body.password));
-        await logIn(req, user);
-        return me(user);
-      },
-    })
-    .add({
-      method: 'post', path: '/auth/password-reset', tag, access: 'public', summary: 'Mail a password-reset link (always answers 202)', status: 202,
-      body: z.object({ email: z.string().min(1) }), response: z.object({ ok: z.literal(true) }),
+      method: 'post', path: '/auth/password-reset/request', tag, access: 'public', summary: 'Mail a reset link (always 202)', status: 202,
+      body: z.object({ email: z.string().min(1).max(320) }), response: z.object({ ok: z.literal(true) }),
       handler: async ({ body }) => {
-        await requestPasswordReset({ sequelize: ctx.sequelize, mailer: ctx.mailer, publicUrl: ctx.config.PUBLIC_URL }, body.email);
+        await requestPasswordReset(mail, body.email);
         return { ok: true as const };
       },
     })
     .add({
-      method: 'post', path: '/auth/password-reset/confirm', tag, access: 'public', summary: 'Set a new password with a reset link', status: 204,
-      body: z.object({ token: z.string().min(10), password }),
+      method: 'post', path: '/auth/password-reset/confirm', tag, access: 'public', summary: 'Set a new password with a mailed link', status: 204,
+      body: z.object({ token, password }),
       handler: async ({ body }) => {
         await resetPassword(ctx.sequelize, body.token, body.password);
+      },
+    })
+    .add({
+      method: 'get', path: '/invitations/:token', tag, access: 'public', summary: 'What an invitation link is for',
+      params: z.object({ token }),
+      response: z.object({ email: z.string(), projectName: z.string(), role: z.enum(ROLES), expiresAt: z.string() }),
+      handler: ({ params }) => previewInvitation(params.token),
+    })
+    .add({
+      method: 'post', path: '/invitations/:token/accept', tag, access: 'public', summary: 'Create my account from an invitation and sign in',
+      params: z.object({ token }), body: z.object({ name: z.string().trim().min(1).max(200), password }), response: z.object({ user: userDto }),
+      handler: async ({ req, params, body }) => {
+        const user = await acceptInvitation(ctx.sequelize, params.token, body);
+        await logIn(req, toSessionUser(user));
+        return { user: toUserDto(user) };
       },
     });
 }

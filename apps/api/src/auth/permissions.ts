@@ -1,12 +1,13 @@
 /**
- * What each role may do (product.md, "Who uses it"). Project membership is checked separately:
- * apart from admins, people only see the projects they belong to.
+ * What each project role may do (product.md, "Who uses it"). Roles belong to a membership, so the
+ * same person can be an analyst in one project and a viewer in another. Site admins (users.is_admin)
+ * manage users, invitations and the queue, and act as project admins everywhere.
  */
 export const ROLES = ['admin', 'analyst', 'reviewer', 'viewer'] as const;
 export type Role = (typeof ROLES)[number];
 
 export const PERMISSIONS = [
-  'project:create',
+  'project:read',
   'project:manage',
   'material:write',
   'material:review',
@@ -16,17 +17,16 @@ export const PERMISSIONS = [
   'run:cancel',
   'run:review',
   'comment:write',
-  'user:manage',
-  'queue:manage',
-  'audit:read',
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
+const ANALYST: readonly Permission[] = ['project:read', 'material:write', 'testdata:write', 'study:write', 'run:submit', 'run:cancel', 'comment:write'];
+
 const GRANTS: Record<Role, readonly Permission[]> = {
   admin: PERMISSIONS,
-  analyst: ['project:create', 'material:write', 'testdata:write', 'study:write', 'run:submit', 'run:cancel', 'comment:write'],
-  reviewer: ['material:review', 'run:review', 'comment:write'],
-  viewer: [],
+  analyst: ANALYST,
+  reviewer: ['project:read', 'material:review', 'run:review', 'comment:write'],
+  viewer: ['project:read'],
 };
 
 export function can(role: Role, permission: Permission): boolean {

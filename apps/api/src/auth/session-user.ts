@@ -1,9 +1,7 @@
-import type { Role } from './permissions';
-
-/** What a request knows about its signed-in user (kept small; loaded per request from the session). */
+/** What a request knows about its signed-in user (re-read per request from the users table). */
 export interface SessionUser {
   id: string;
   email: string;
   name: string;
-  role: Role;
+  isAdmin: boolean;
 }

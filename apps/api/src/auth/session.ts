@@ -10,16 +10,16 @@ import { Strategy as LocalStrategy } from 'passport-local';
 import type pg from 'pg';
 import type { RequestHandler } from 'express';
 import { User } from '../users/users.model';
-import { verifyPassword } from './password';
+import { hashPassword, verifyPassword } from './password';
 import type { SessionUser } from './session-user';
 
 export const SESSION_COOKIE = 'phaseloop.sid';
 
 export function toSessionUser(u: User): SessionUser {
-  return { id: u.id, email: u.email, name: u.name, role: u.role };
+  return { id: u.id, email: u.email, name: u.name, isAdmin: u.isAdmin };
 }
 
-export function createSessionMiddleware(pool: pg.Pool, secret: string, secureCookie: boolean): RequestHandler {
+export function createSessionMiddleware(pool: pg.Pool, secret: string, secureCookie: boolean, idleMinutes: number): RequestHandler {
   const PgStore = connectPgSimple(session);
   return session({
     name: SESSION_COOKIE,
@@ -28,9 +28,12 @@ export function createSessionMiddleware(pool: pg.Pool, secret: string, secureCoo
     saveUninitialized: false,
     rolling: true,
     store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
-    cookie: { httpOnly: true, sameSite: 'lax', secure: secureCookie, maxAge: 7 * 24 * 3600 * 1000 },
+    cookie: { httpOnly: true, sameSite: 'lax', secure: secureCookie, maxAge: idleMinutes * 60_000 },
   });
 }
+
+// Checking a password for an unknown e-mail takes as long as for a known one (no timing probe).
+let dummyHash: Promise<string> | null = null;
 
 /** A passport instance per app (not the global one), so tests can build several apps. */
 export type PassportInstance = InstanceType<typeof passport.Authenticator>;
@@ -41,9 +44,13 @@ export function createPassport(): PassportInstance {
     new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
       void (async () => {
         const user = await User.findOne({ where: { email: email.trim().toLowerCase() } });
+        if (!user) {
+          dummyHash ??= hashPassword('not-a-real-password');
+          await verifyPassword(password, await dummyHash);
+        }
         // Same message for unknown e-mail and wrong password: do not reveal who has an account.
-        if (!user || !user.active || !(await verifyPassword(password, user.passwordHash))) {
-          return done(null, false, { message: 'E-mail or password is wrong' });
+        if (!user || user.disabled || !(await verifyPassword(password, user.passwordHash))) {
+          return done(null, false);
         }
         return done(null, toSessionUser(user));
       })().catch(done);
@@ -52,7 +59,7 @@ export function createPassport(): PassportInstance {
   pp.serializeUser((user, done) => done(null, (user as SessionUser).id));
   pp.deserializeUser((id: string, done) => {
     User.findByPk(id)
-      .then((u) => done(null, u && u.active ? toSessionUser(u) : false))
+      .then((u) => done(null, u && !u.disabled ? toSessionUser(u) : false))
       .catch(done);
   });
   return pp;

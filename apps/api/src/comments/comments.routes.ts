@@ -3,6 +3,7 @@ import { QueryTypes } from 'sequelize';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import type { SessionUser } from '../auth/session-user';
+import type { Permission } from '../auth/permissions';
 import { uuid } from '../http/common-schemas';
 import { audit } from '../audit/audit.service';
 import { requireMaterialVersion } from '../materials/materials.service';
@@ -13,11 +14,11 @@ const TARGETS = ['material-version', 'study', 'run'] as const;
 type Target = (typeof TARGETS)[number];
 
 /** The project of a comment's target, after checking the user may see the target. */
-async function projectOfTarget(user: SessionUser, type: Target, id: string): Promise<string> {
+async function projectOfTarget(user: SessionUser, type: Target, id: string, permission: Permission): Promise<string> {
   switch (type) {
-    case 'material-version': return (await requireMaterialVersion(user, id)).material.projectId;
-    case 'study': return (await requireStudy(user, id)).projectId;
-    case 'run': return (await requireRun(user, id)).projectId;
+    case 'material-version': return (await requireMaterialVersion(user, id, permission)).material.projectId;
+    case 'study': return (await requireStudy(user, id, permission)).projectId;
+    case 'run': return (await requireRun(user, id, permission)).projectId;
   }
 }
 
@@ -31,7 +32,7 @@ export function registerCommentRoutes(api: ApiRouter, ctx: AppContext): void {
       method: 'get', path: '/comments', tag, access: 'user', summary: 'Comments on a material version, study or run',
       query: target, response: z.array(commentDto),
       handler: async ({ user, query }) => {
-        await projectOfTarget(user, query.targetType, query.targetId);
+        await projectOfTarget(user, query.targetType, query.targetId, 'project:read');
         const rows = await ctx.sequelize.query<z.infer<typeof commentDto> & { createdAt: Date }>(
           `SELECT c.id, c.target_type AS "targetType", c.target_id AS "targetId", c.author_id AS "authorId", u.name AS "authorName", c.body, c.created_at AS "createdAt"
              FROM comments c LEFT JOIN users u ON u.id = c.author_id
@@ -42,10 +43,10 @@ export function registerCommentRoutes(api: ApiRouter, ctx: AppContext): void {
       },
     })
     .add({
-      method: 'post', path: '/comments', tag, access: 'comment:write', summary: 'Comment on a material version, study or run',
+      method: 'post', path: '/comments', tag, access: 'user', description: 'Project analysts, reviewers and admins.', summary: 'Comment on a material version, study or run',
       body: target.extend({ body: z.string().trim().min(1, { error: 'Write something' }).max(10_000) }), response: commentDto,
       handler: async ({ user, body }) => {
-        const projectId = await projectOfTarget(user, body.targetType, body.targetId);
+        const projectId = await projectOfTarget(user, body.targetType, body.targetId, 'comment:write');
         const [row] = await ctx.sequelize.query<{ id: string; createdAt: Date }>(
           `INSERT INTO comments (project_id, target_type, target_id, author_id, body) VALUES (:projectId, :targetType, :targetId, :authorId, :body)
            RETURNING id, created_at AS "createdAt"`,

@@ -1,18 +1,30 @@
 /**
  * One error type for everything the API refuses on purpose, and one middleware that turns errors
- * into JSON. Unexpected errors are logged and answered with a generic message so internals
- * (SQL, stack traces) never reach the browser.
+ * into the contract's JSON shape `{ error: { code, message, details? } }`. Unexpected errors are
+ * logged and answered with a generic message so internals (SQL, stack traces) never leak.
  */
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import type { Logger } from 'pino';
 
+export const ERROR_CODES = [
+  'bad_request',
+  'validation_failed',
+  'unauthenticated',
+  'forbidden',
+  'not_found',
+  'conflict',
+  'rate_limited',
+  'csrf_failed',
+  'internal',
+] as const;
+export type ErrorCode = (typeof ERROR_CODES)[number];
+
 export class HttpError extends Error {
   constructor(
     readonly status: number,
     message: string,
-    /** Machine-readable reason, e.g. 'quota-exceeded'. */
-    readonly code: string = codeForStatus(status),
+    readonly code: ErrorCode = codeForStatus(status),
     readonly details?: unknown,
   ) {
     super(message);
@@ -20,25 +32,26 @@ export class HttpError extends Error {
   }
 }
 
-function codeForStatus(status: number): string {
+export function codeForStatus(status: number): ErrorCode {
   switch (status) {
-    case 400: return 'bad-request';
-    case 401: return 'not-signed-in';
+    case 401: return 'unauthenticated';
     case 403: return 'forbidden';
-    case 404: return 'not-found';
+    case 404: return 'not_found';
     case 409: return 'conflict';
-    case 413: return 'too-large';
-    case 422: return 'invalid';
-    case 429: return 'too-many-requests';
-    default: return status >= 500 ? 'server-error' : 'error';
+    case 422: return 'validation_failed';
+    case 429: return 'rate_limited';
+    default: return status >= 500 ? 'internal' : 'bad_request';
   }
 }
 
 export const notFound = (what: string): HttpError => new HttpError(404, `${what} not found`);
-export const forbidden = (why = 'Your role does not allow this'): HttpError => new HttpError(403, why);
 
 export interface ErrorBody {
-  error: { code: string; message: string; details?: unknown };
+  error: { code: ErrorCode; message: string; details?: unknown };
+}
+
+export function errorBody(code: ErrorCode, message: string, details?: unknown): ErrorBody {
+  return { error: details === undefined ? { code, message } : { code, message, details } };
 }
 
 /** Zod issues as `path: message` pairs a form can show beside its fields. */
@@ -56,23 +69,25 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     let body: ErrorBody;
     if (err instanceof HttpError) {
       status = err.status;
-      body = { error: { code: err.code, message: err.message, details: err.details } };
+      body = errorBody(err.code, err.message, err.details);
     } else if (err instanceof ZodError) {
       status = 422;
-      body = { error: { code: 'invalid', message: 'The request is not valid', details: zodDetails(err) } };
+      body = errorBody('validation_failed', 'The request is not valid', zodDetails(err));
     } else if (isBodyParserError(err)) {
+      // Malformed JSON, too large a body, wrong charset: the client's fault, said plainly.
       status = err.status;
-      body = { error: { code: codeForStatus(status), message: err.message } };
+      const message = err.type === 'entity.parse.failed' ? 'The request body is not valid JSON' : err.message;
+      body = errorBody(status === 413 ? 'bad_request' : codeForStatus(status), message);
     } else {
       logger.error({ err, method: req.method, url: req.originalUrl }, 'unhandled error');
-      body = { error: { code: 'server-error', message: 'Something went wrong on the server; it has been logged' } };
+      body = errorBody('internal', 'Something went wrong on the server; it has been logged');
     }
     if (res.headersSent) return;
     res.status(status).json(body);
   };
 }
 
-function isBodyParserError(err: unknown): err is { status: number; message: string } {
+function isBodyParserError(err: unknown): err is { status: number; message: string; type: string } {
   if (typeof err !== 'object' || err === null) return false;
   const e = err as { status?: unknown; type?: unknown };
   return typeof e.status === 'number' && e.status >= 400 && e.status < 500 && typeof e.type === 'string';

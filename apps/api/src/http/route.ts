@@ -7,13 +7,15 @@ import { Router, type Request, type RequestHandler, type Response } from 'expres
 import type { OpenAPIRegistry, RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z, type ZodType } from 'zod';
 import { HttpError, zodDetails } from './errors';
-import { can, type Permission } from '../auth/permissions';
 import type { SessionUser } from '../auth/session-user';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
-/** `public`: anyone; `user`: any signed-in user; a permission: signed-in user whose role grants it. */
-export type Access = 'public' | 'user' | Permission;
+/**
+ * `public`: anyone; `user`: any signed-in user (project routes then check the membership role in
+ * their service); `site-admin`: users with isAdmin.
+ */
+export type Access = 'public' | 'user' | 'site-admin';
 
 export interface RouteContext<P, Q, B> {
   params: P;
@@ -29,6 +31,8 @@ export interface RouteSpec<P, Q, B, R> {
   /** Express-style path relative to the router's prefix, e.g. `/studies/:id`. */
   path: string;
   summary: string;
+  /** Who may call it beyond the access level (e.g. "project analysts and admins"). */
+  description?: string;
   tag: string;
   access: Access;
   params?: ZodType<P>;
@@ -47,6 +51,12 @@ export interface RouteSpec<P, Q, B, R> {
 }
 
 const emptyObject = z.object({});
+
+const ACCESS_TEXT: Record<Access, string> = {
+  public: 'No sign-in needed.',
+  user: 'Signed-in users; project data only for members of the project (others get 404).',
+  'site-admin': 'Site admins only.',
+};
 
 export class ApiRouter {
   readonly router = Router();
@@ -85,7 +95,7 @@ export class ApiRouter {
       path,
       summary: spec.summary,
       tags: [spec.tag],
-      description: spec.access === 'public' ? 'No sign-in needed.' : spec.access === 'user' ? 'Any signed-in user.' : `Needs the permission ${spec.access}.`,
+      description: ACCESS_TEXT[spec.access] + (spec.description ? ` ${spec.description}` : ''),
       request: {
         ...(spec.params ? { params: spec.params as unknown as z.ZodObject } : {}),
         ...(spec.query ? { query: spec.query as unknown as z.ZodObject } : {}),
@@ -106,9 +116,7 @@ function authorise(req: Request, access: Access): SessionUser | null {
   if (access === 'public') return (req.user as SessionUser | undefined) ?? null;
   const user = req.user as SessionUser | undefined;
   if (!user) throw new HttpError(401, 'Please sign in');
-  if (access !== 'user' && !can(user.role, access)) {
-    throw new HttpError(403, `Your role (${user.role}) does not allow this`);
-  }
+  if (access === 'site-admin' && !user.isAdmin) throw new HttpError(403, 'Only site admins may do this');
   return user;
 }
 
@@ -116,7 +124,7 @@ function parsePart<T>(schema: ZodType<T>, value: unknown, where: string): T {
   const result = schema.safeParse(value);
   if (!result.success) {
     const status = where === 'body' ? 422 : 400;
-    throw new HttpError(status, `The request ${where} is not valid`, 'invalid', zodDetails(result.error));
+    throw new HttpError(status, `The request ${where} is not valid`, status === 422 ? 'validation_failed' : 'bad_request', zodDetails(result.error));
   }
   return result.data;
 }

@@ -7,6 +7,7 @@ export class Material extends Model<InferAttributes<Material>, InferCreationAttr
   declare id: CreationOptional<string>;
   declare projectId: string;
   declare name: string;
+  declare isDemo: CreationOptional<boolean>;
   declare description: CreationOptional<string>;
   declare createdBy: string | null;
   declare createdAt: CreationOptional<Date>;
@@ -36,6 +37,7 @@ export function initMaterialModels(sequelize: Sequelize): void {
       id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
       projectId: { type: DataTypes.UUID, allowNull: false },
       name: { type: DataTypes.TEXT, allowNull: false },
+      isDemo: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
       createdBy: { type: DataTypes.UUID, allowNull: true },
       createdAt: DataTypes.DATE,

@@ -3,7 +3,7 @@ import { materialParamsSchema } from '@phaseloop/shared';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { description, idParams, name, projectParams, uuid } from '../http/common-schemas';
-import { addVersion, createMaterial, getMaterial, listMaterials, requireMaterialVersion, reviewVersion, toVersionDto, updateDraft } from './materials.service';
+import { addVersion, createMaterial, getMaterial, listMaterialSummaries, requireMaterialVersion, reviewVersion, toVersionDto, updateDraft } from './materials.service';
 
 const provenance = z.record(z.string(), z.unknown()).default({});
 const notes = z.string().max(10_000).default('');
@@ -19,12 +19,13 @@ export function registerMaterialRoutes(api: ApiRouter, ctx: AppContext): void {
   const tag = 'Materials';
   api
     .add({
-      method: 'get', path: '/projects/:projectId/materials', tag, access: 'user', summary: 'Materials of a project (with their latest version)',
-      params: projectParams, response: z.array(materialDto),
-      handler: ({ user, params }) => listMaterials(user, params.projectId),
+      method: 'get', path: '/projects/:projectId/materials', tag, access: 'user', summary: 'Materials of a project (their latest version)',
+      params: projectParams,
+      response: z.object({ items: z.array(z.object({ id: uuid, name: z.string(), version: z.number().int(), status: z.enum(['draft', 'approved', 'rejected']), model: z.string(), isDemo: z.boolean(), updatedAt: z.string() })) }),
+      handler: async ({ user, params }) => ({ items: await listMaterialSummaries(user, params.projectId) }),
     })
     .add({
-      method: 'post', path: '/projects/:projectId/materials', tag, access: 'material:write', summary: 'Create a material (version 1, draft)',
+      method: 'post', path: '/projects/:projectId/materials', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Create a material (version 1, draft)',
       params: projectParams,
       body: z.object({ name, description, params: materialParamsSchema, provenance, notes }),
       response: materialDto,
@@ -36,7 +37,7 @@ export function registerMaterialRoutes(api: ApiRouter, ctx: AppContext): void {
       handler: ({ user, params }) => getMaterial(user, params.id),
     })
     .add({
-      method: 'post', path: '/materials/:id/versions', tag, access: 'material:write', summary: 'Save a new draft version',
+      method: 'post', path: '/materials/:id/versions', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Save a new draft version',
       params: idParams, body: z.object({ params: materialParamsSchema, provenance, notes }), response: materialVersionDto,
       handler: ({ user, params, body }) => addVersion(ctx.sequelize, user, params.id, body),
     })
@@ -46,14 +47,14 @@ export function registerMaterialRoutes(api: ApiRouter, ctx: AppContext): void {
       handler: async ({ user, params }) => toVersionDto((await requireMaterialVersion(user, params.id)).version),
     })
     .add({
-      method: 'patch', path: '/material-versions/:id', tag, access: 'material:write', summary: 'Edit a draft version',
+      method: 'patch', path: '/material-versions/:id', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Edit a draft version',
       params: idParams,
       body: z.object({ params: materialParamsSchema.optional(), provenance: z.record(z.string(), z.unknown()).optional(), notes: z.string().max(10_000).optional() }),
       response: materialVersionDto,
       handler: ({ user, params, body }) => updateDraft(ctx.sequelize, user, params.id, body),
     })
     .add({
-      method: 'post', path: '/material-versions/:id/review', tag, access: 'material:review', summary: 'Approve or reject a draft version', status: 200,
+      method: 'post', path: '/material-versions/:id/review', tag, access: 'user', description: 'Project reviewers and admins.', summary: 'Approve or reject a draft version', status: 200,
       params: idParams,
       body: z.object({ decision: z.enum(['approve', 'reject']), reason: z.string().max(5000).default('') }),
       response: materialVersionDto,

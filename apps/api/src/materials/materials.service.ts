@@ -2,7 +2,8 @@ import { UniqueConstraintError, type Sequelize } from 'sequelize';
 import type { MaterialParams } from '@phaseloop/shared';
 import { HttpError, notFound } from '../http/errors';
 import type { SessionUser } from '../auth/session-user';
-import { requireProject } from '../projects/projects.service';
+import { requireProject, requireProjectOf } from '../projects/projects.service';
+import type { Permission } from '../auth/permissions';
 import { audit } from '../audit/audit.service';
 import { Material, MaterialVersion, type MaterialVersionStatus } from './materials.model';
 
@@ -44,22 +45,46 @@ function toMaterialDto(m: Material, latest: MaterialVersion | null): MaterialDto
   return { id: m.id, projectId: m.projectId, name: m.name, description: m.description, latest: latest ? toVersionDto(latest) : null };
 }
 
-export async function requireMaterial(user: SessionUser, id: string): Promise<Material> {
+export async function requireMaterial(user: SessionUser, id: string, permission: Permission = 'project:read'): Promise<Material> {
   const m = await Material.findByPk(id);
   if (!m) throw notFound('Material');
-  await requireProject(user, m.projectId).catch(() => {
-    throw notFound('Material');
-  });
+  await requireProjectOf(user, m.projectId, permission, 'Material');
   return m;
 }
 
-export async function requireMaterialVersion(user: SessionUser, id: string): Promise<{ version: MaterialVersion; material: Material }> {
+export async function requireMaterialVersion(
+  user: SessionUser,
+  id: string,
+  permission: Permission = 'project:read',
+): Promise<{ version: MaterialVersion; material: Material; role: string }> {
   const version = await MaterialVersion.findByPk(id);
-  if (!version) throw notFound('Material version');
-  const material = await requireMaterial(user, version.materialId).catch(() => {
-    throw notFound('Material version');
-  });
-  return { version, material };
+  const material = version ? await Material.findByPk(version.materialId) : null;
+  if (!version || !material) throw notFound('Material version');
+  const access = await requireProjectOf(user, material.projectId, permission, 'Material version');
+  return { version, material, role: access.effectiveRole };
+}
+
+export interface MaterialSummaryDto {
+  id: string;
+  name: string;
+  /** Latest version's number, status and model. */
+  version: number;
+  status: MaterialVersionStatus;
+  model: string;
+  isDemo: boolean;
+  updatedAt: string;
+}
+
+export async function listMaterialSummaries(user: SessionUser, projectId: string): Promise<MaterialSummaryDto[]> {
+  await requireProject(user, projectId);
+  const materials = await Material.findAll({ where: { projectId }, order: [['name', 'ASC']] });
+  const out: MaterialSummaryDto[] = [];
+  for (const m of materials) {
+    const v = await latestVersion(m.id);
+    const updated = v && v.updatedAt > m.updatedAt ? v.updatedAt : m.updatedAt;
+    out.push({ id: m.id, name: m.name, version: v?.version ?? 0, status: v?.status ?? 'draft', model: v?.params.model ?? '', isDemo: m.isDemo, updatedAt: updated.toISOString() });
+  }
+  return out;
 }
 
 export async function listMaterials(user: SessionUser, projectId: string): Promise<MaterialDto[]> {
@@ -74,7 +99,7 @@ export async function createMaterial(
   projectId: string,
   input: { name: string; description: string; params: MaterialParams; provenance: Record<string, unknown>; notes: string },
 ): Promise<MaterialDto> {
-  await requireProject(user, projectId);
+  await requireProject(user, projectId, 'material:write');
   try {
     return await sequelize.transaction(async (transaction) => {
       const m = await Material.create({ projectId, name: input.name, description: input.description, createdBy: user.id }, { transaction });
@@ -104,7 +129,7 @@ export async function addVersion(
   materialId: string,
   input: { params: MaterialParams; provenance: Record<string, unknown>; notes: string },
 ): Promise<MaterialVersionDto> {
-  const m = await requireMaterial(user, materialId);
+  const m = await requireMaterial(user, materialId, 'material:write');
   const v = await sequelize.transaction(async (transaction) => {
     // Lock the material row so two simultaneous saves cannot take the same number.
     await Material.findByPk(materialId, { transaction, lock: transaction.LOCK.UPDATE });
@@ -122,7 +147,7 @@ export async function updateDraft(
   versionId: string,
   patch: { params?: MaterialParams; provenance?: Record<string, unknown>; notes?: string },
 ): Promise<MaterialVersionDto> {
-  const { version, material } = await requireMaterialVersion(user, versionId);
+  const { version, material } = await requireMaterialVersion(user, versionId, 'material:write');
   if (version.status !== 'draft') throw new HttpError(409, `Version ${version.version} is ${version.status}; save a new version instead`);
   await version.update(patch);
   await audit(sequelize, { userId: user.id, projectId: material.projectId, action: 'material.version-edit', targetType: 'material-version', targetId: version.id });
@@ -136,10 +161,11 @@ export async function reviewVersion(
   decision: 'approve' | 'reject',
   reason: string,
 ): Promise<MaterialVersionDto> {
-  const { version, material } = await requireMaterialVersion(user, versionId);
+  const { version, material, role } = await requireMaterialVersion(user, versionId, 'material:review');
   if (version.status !== 'draft') throw new HttpError(409, `Version ${version.version} has already been ${version.status}`);
-  if (decision === 'reject' && !reason.trim()) throw new HttpError(422, 'Say why the version is rejected', 'invalid');
-  if (version.createdBy === user.id && user.role !== 'admin') {
+  if (decision === 'reject' && !reason.trim()) throw new HttpError(422, 'Say why the version is rejected', 'validation_failed');
+  // Four eyes: the author of a version does not approve it, unless they administer the project.
+  if (version.createdBy === user.id && role !== 'admin') {
     throw new HttpError(403, 'A version is reviewed by someone other than its author');
   }
   await version.update({ status: decision === 'approve' ? 'approved' : 'rejected', reviewedBy: user.id, reviewedAt: new Date(), reviewReason: reason });

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import type { MaterialParams, RunStatus } from '@phaseloop/shared';
+import type { MaterialParams, RunState } from '@phaseloop/shared';
 import type { StudyDefinition } from '../studies/study-definition';
 
 /** Everything a run needs, frozen at submission: later edits of the study or materials never change it. */
@@ -18,7 +18,7 @@ export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run
   declare studyId: string;
   declare sweepId: string | null;
   declare number: number;
-  declare status: RunStatus;
+  declare state: RunState;
   declare snapshot: RunSnapshot;
   declare solverVersion: string;
   declare jobId: CreationOptional<string | null>;
@@ -45,7 +45,7 @@ export function initRunModels(sequelize: Sequelize): void {
       studyId: { type: DataTypes.UUID, allowNull: false },
       sweepId: { type: DataTypes.UUID, allowNull: true },
       number: { type: DataTypes.INTEGER, allowNull: false },
-      status: { type: DataTypes.TEXT, allowNull: false },
+      state: { type: DataTypes.TEXT, allowNull: false },
       snapshot: { type: DataTypes.JSONB, allowNull: false },
       solverVersion: { type: DataTypes.TEXT, allowNull: false },
       jobId: { type: DataTypes.TEXT, allowNull: true },

@@ -1,15 +1,16 @@
 import { z } from 'zod';
 import { QueryTypes } from 'sequelize';
-import { RUN_STATUSES } from '@phaseloop/shared';
+import { RUN_STATES, type RunState } from '@phaseloop/shared';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
-import { idParams, uuid } from '../http/common-schemas';
+import { idParams, projectParams, uuid } from '../http/common-schemas';
+import { requireProject } from '../projects/projects.service';
 import { Run } from './runs.model';
 import { cancelRun, listStudyRuns, requestReview, requireRun, rerun, reviewRun, submitRun, toRunDto } from './runs.service';
 import { listArtifacts, listFrames, listIterations, streamArtifact } from './results.service';
 
 export const runDto = z.object({
-  id: uuid, projectId: uuid, studyId: uuid, sweepId: uuid.nullable(), number: z.number().int(), status: z.enum(RUN_STATUSES),
+  id: uuid, projectId: uuid, studyId: uuid, sweepId: uuid.nullable(), number: z.number().int(), state: z.enum(RUN_STATES),
   message: z.string(), solverVersion: z.string(), progress: z.record(z.string(), z.unknown()), queuePosition: z.number().int().nullable(),
   submittedBy: z.string().nullable(), createdAt: z.string(), queuedAt: z.string().nullable(), startedAt: z.string().nullable(),
   finishedAt: z.string().nullable(), cancelRequested: z.boolean(), reviewStatus: z.enum(['none', 'requested', 'approved', 'rejected']),
@@ -20,7 +21,29 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
   const tag = 'Runs';
   api
     .add({
-      method: 'post', path: '/studies/:id/runs', tag, access: 'run:submit', summary: 'Freeze the study and queue a run',
+      method: 'get', path: '/projects/:projectId/runs', tag, access: 'user', summary: 'Runs of a project, newest first',
+      params: projectParams, query: z.object({ limit: z.coerce.number().int().min(1).max(1000).default(200) }),
+      response: z.object({
+        items: z.array(z.object({
+          id: uuid, studyId: uuid, studyName: z.string(), number: z.number().int(), state: z.enum(RUN_STATES),
+          queuedAt: z.string().nullable(), startedAt: z.string().nullable(), finishedAt: z.string().nullable(),
+        })),
+      }),
+      handler: async ({ user, params, query }) => {
+        await requireProject(user, params.projectId);
+        const rows = await ctx.sequelize.query<{ id: string; studyId: string; studyName: string; number: number; state: RunState; queuedAt: Date | null; startedAt: Date | null; finishedAt: Date | null }>(
+          `SELECT r.id, r.study_id AS "studyId", s.name AS "studyName", r.number, r.state, r.queued_at AS "queuedAt",
+                  r.started_at AS "startedAt", r.finished_at AS "finishedAt"
+             FROM runs r JOIN studies s ON s.id = r.study_id
+            WHERE r.project_id = :projectId ORDER BY r.created_at DESC LIMIT :limit`,
+          { replacements: { projectId: params.projectId, limit: query.limit }, type: QueryTypes.SELECT },
+        );
+        const iso = (d: Date | null) => (d ? new Date(d).toISOString() : null);
+        return { items: rows.map((r) => ({ ...r, queuedAt: iso(r.queuedAt), startedAt: iso(r.startedAt), finishedAt: iso(r.finishedAt) })) };
+      },
+    })
+    .add({
+      method: 'post', path: '/studies/:id/runs', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Freeze the study and queue a run',
       params: idParams, response: runDto,
       handler: ({ user, params }) => submitRun(ctx, user, params.id),
     })
@@ -35,22 +58,22 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
       handler: async ({ user, params }) => toRunDto(ctx.sequelize, await requireRun(user, params.id), true),
     })
     .add({
-      method: 'post', path: '/runs/:id/cancel', tag, access: 'run:cancel', summary: 'Cancel a queued or running run', status: 200,
+      method: 'post', path: '/runs/:id/cancel', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Cancel a queued or running run', status: 200,
       params: idParams, response: runDto,
       handler: ({ user, params }) => cancelRun(ctx, user, params.id),
     })
     .add({
-      method: 'post', path: '/runs/:id/rerun', tag, access: 'run:submit', summary: 'Queue the same snapshot again',
+      method: 'post', path: '/runs/:id/rerun', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Queue the same snapshot again',
       params: idParams, response: runDto,
       handler: ({ user, params }) => rerun(ctx, user, params.id),
     })
     .add({
-      method: 'post', path: '/runs/:id/request-review', tag, access: 'run:submit', summary: 'Ask a reviewer to approve a run', status: 200,
+      method: 'post', path: '/runs/:id/request-review', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Ask a reviewer to approve a run', status: 200,
       params: idParams, response: runDto,
       handler: ({ user, params }) => requestReview(ctx, user, params.id),
     })
     .add({
-      method: 'post', path: '/runs/:id/review', tag, access: 'run:review', summary: 'Approve or reject a run', status: 200,
+      method: 'post', path: '/runs/:id/review', tag, access: 'user', description: 'Project reviewers and admins.', summary: 'Approve or reject a run', status: 200,
       params: idParams, body: z.object({ decision: z.enum(['approve', 'reject']), reason: z.string().max(5000).default('') }), response: runDto,
       handler: ({ user, params, body }) => reviewRun(ctx, user, params.id, body.decision, body.reason),
     })
@@ -96,10 +119,10 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
         workers: z.array(z.object({ id: z.string(), hostname: z.string(), pid: z.number(), lastSeenAt: z.string(), currentRunId: z.string().nullable() })),
       }),
       handler: async ({ user }) => {
-        const active = await Run.findAll({ where: { status: ['queued', 'running'] }, order: [['queuedAt', 'ASC']] });
+        const active = await Run.findAll({ where: { state: ['queued', 'running'] }, order: [['queuedAt', 'ASC']] });
         const visible: Run[] = [];
         for (const r of active) {
-          if (user.role === 'admin' || (await requireRun(user, r.id).then(() => true, () => false))) visible.push(r);
+          if (user.isAdmin || (await requireRun(user, r.id).then(() => true, () => false))) visible.push(r);
         }
         const workers = await ctx.sequelize.query<{ id: string; hostname: string; pid: number; lastSeenAt: Date; currentRunId: string | null }>(
           `SELECT id, hostname, pid, last_seen_at AS "lastSeenAt", current_run_id AS "currentRunId"

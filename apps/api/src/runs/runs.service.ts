@@ -1,9 +1,10 @@
 import { Op, QueryTypes, type Sequelize } from 'sequelize';
-import { isFinalRunStatus, type RunStatus, type RunStatusEvent } from '@phaseloop/shared';
+import { isFinalRunState, type RunState, type RunStatusEvent } from '@phaseloop/shared';
 import { HttpError, notFound } from '../http/errors';
 import type { SessionUser } from '../auth/session-user';
 import type { AppContext } from '../context';
-import { requireProject } from '../projects/projects.service';
+import { requireProjectOf } from '../projects/projects.service';
+import type { Permission } from '../auth/permissions';
 import { audit } from '../audit/audit.service';
 import { User } from '../users/users.model';
 import { Material, MaterialVersion } from '../materials/materials.model';
@@ -18,7 +19,7 @@ export interface RunDto {
   studyId: string;
   sweepId: string | null;
   number: number;
-  status: RunStatus;
+  state: RunState;
   message: string;
   solverVersion: string;
   progress: Record<string, unknown>;
@@ -38,9 +39,9 @@ const iso = (d: Date | null | undefined): string | null => (d ? d.toISOString() 
 
 /** 1 = next to be picked up. Runs are served first come, first served. */
 export async function queuePosition(sequelize: Sequelize, run: Run): Promise<number | null> {
-  if (run.status !== 'queued' || !run.queuedAt) return null;
+  if (run.state !== 'queued' || !run.queuedAt) return null;
   const [row] = await sequelize.query<{ n: number }>(
-    `SELECT count(*) AS n FROM runs WHERE status = 'queued' AND (queued_at, id) <= (:queuedAt, :id)`,
+    `SELECT count(*) AS n FROM runs WHERE state = 'queued' AND (queued_at, id) <= (:queuedAt, :id)`,
     { replacements: { queuedAt: run.queuedAt, id: run.id }, type: QueryTypes.SELECT },
   );
   return Number(row.n);
@@ -49,7 +50,7 @@ export async function queuePosition(sequelize: Sequelize, run: Run): Promise<num
 export async function toRunDto(sequelize: Sequelize, run: Run, withSnapshot = false): Promise<RunDto> {
   return {
     id: run.id, projectId: run.projectId, studyId: run.studyId, sweepId: run.sweepId, number: run.number,
-    status: run.status, message: run.message, solverVersion: run.solverVersion, progress: run.progress,
+    state: run.state, message: run.message, solverVersion: run.solverVersion, progress: run.progress,
     queuePosition: await queuePosition(sequelize, run), submittedBy: run.submittedBy,
     createdAt: run.createdAt.toISOString(), queuedAt: iso(run.queuedAt), startedAt: iso(run.startedAt),
     finishedAt: iso(run.finishedAt), cancelRequested: run.cancelRequestedAt !== null, reviewStatus: run.reviewStatus,
@@ -57,12 +58,10 @@ export async function toRunDto(sequelize: Sequelize, run: Run, withSnapshot = fa
   };
 }
 
-export async function requireRun(user: SessionUser, id: string): Promise<Run> {
+export async function requireRun(user: SessionUser, id: string, permission: Permission = 'project:read'): Promise<Run> {
   const run = await Run.findByPk(id);
   if (!run) throw notFound('Run');
-  await requireProject(user, run.projectId).catch(() => {
-    throw notFound('Run');
-  });
+  await requireProjectOf(user, run.projectId, permission, 'Run');
   return run;
 }
 
@@ -70,17 +69,17 @@ async function checkQuota(sequelize: Sequelize, user: SessionUser, estimatedNode
   const account = await User.findByPk(user.id);
   if (!account) throw new HttpError(401, 'Please sign in');
   if (estimatedNodes !== undefined && estimatedNodes > account.maxNodes) {
-    throw new HttpError(422, `The model has about ${estimatedNodes} nodes; your quota is ${account.maxNodes}. Coarsen the mesh or ask an admin.`, 'quota-exceeded');
+    throw new HttpError(422, `The model has about ${estimatedNodes} nodes; your quota is ${account.maxNodes}. Coarsen the mesh or ask an admin.`, 'validation_failed', { reason: 'quota', quota: 'maxNodes' });
   }
-  const active = await Run.count({ where: { submittedBy: user.id, status: { [Op.in]: ['queued', 'running'] } } });
+  const active = await Run.count({ where: { submittedBy: user.id, state: { [Op.in]: ['queued', 'running'] } } });
   if (active >= account.maxActiveRuns) {
-    throw new HttpError(429, `You already have ${active} runs queued or running (your quota is ${account.maxActiveRuns}); wait for one to finish or cancel one.`, 'quota-exceeded');
+    throw new HttpError(429, `You already have ${active} runs queued or running (your quota is ${account.maxActiveRuns}); wait for one to finish or cancel one.`, 'conflict', { reason: 'quota', quota: 'maxActiveRuns' });
   }
 }
 
 async function buildSnapshot(study: Study, solverVersion: string): Promise<RunSnapshot> {
   const parsed = studyDefinitionEnvelope.safeParse(study.definition);
-  if (!parsed.success) throw new HttpError(422, 'The study is not complete: ' + parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; '), 'invalid');
+  if (!parsed.success) throw new HttpError(422, 'The study is not complete: ' + parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; '), 'validation_failed');
   const versions = await checkMaterialsBelong(study.projectId, parsed.data);
   const materials = await Material.findAll({ where: { id: { [Op.in]: versions.map((v) => v.materialId) } } });
   const nameOf = new Map(materials.map((m) => [m.id, m.name]));
@@ -101,7 +100,7 @@ async function insertAndQueue(ctx: AppContext, user: SessionUser, study: Study, 
     const last = await Run.max<number, Run>('number', { where: { studyId: study.id }, transaction });
     return Run.create(
       {
-        projectId: study.projectId, studyId: study.id, sweepId, number: (last ?? 0) + 1, status: 'queued', snapshot,
+        projectId: study.projectId, studyId: study.id, sweepId, number: (last ?? 0) + 1, state: 'queued', snapshot,
         solverVersion: snapshot.solverVersion, submittedBy: user.id, queuedAt: new Date(),
       },
       { transaction },
@@ -112,7 +111,7 @@ async function insertAndQueue(ctx: AppContext, user: SessionUser, study: Study, 
     await run.update({ jobId });
   } catch (err) {
     ctx.logger.error({ err, runId: run.id }, 'enqueue failed');
-    await run.update({ status: 'failed', finishedAt: new Date(), message: 'The run could not be queued (queue unavailable); submit it again.' });
+    await run.update({ state: 'failed', finishedAt: new Date(), message: 'The run could not be queued (queue unavailable); submit it again.' });
   }
   await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: 'run.submit', targetType: 'run', targetId: run.id, detail: { study: study.id, number: run.number } });
   await publishStatus(ctx, run);
@@ -120,14 +119,14 @@ async function insertAndQueue(ctx: AppContext, user: SessionUser, study: Study, 
 }
 
 export async function publishStatus(ctx: AppContext, run: Run): Promise<void> {
-  const event: RunStatusEvent = { runId: run.id, status: run.status, message: run.message, at: new Date().toISOString() };
+  const event: RunStatusEvent = { runId: run.id, state: run.state, message: run.message, at: new Date().toISOString() };
   const pos = await queuePosition(ctx.sequelize, run);
   if (pos !== null) event.queuePosition = pos;
   ctx.broadcaster.status(event);
 }
 
 export async function submitRun(ctx: AppContext, user: SessionUser, studyId: string): Promise<RunDto> {
-  const study = await requireStudy(user, studyId);
+  const study = await requireStudy(user, studyId, 'run:submit');
   const snapshot = await buildSnapshot(study, ctx.solverVersion);
   await checkQuota(ctx.sequelize, user, snapshot.study.definition.estimatedNodes);
   return toRunDto(ctx.sequelize, await insertAndQueue(ctx, user, study, snapshot, null));
@@ -135,7 +134,7 @@ export async function submitRun(ctx: AppContext, user: SessionUser, studyId: str
 
 /** Same frozen snapshot, new run (the solver version is today's). */
 export async function rerun(ctx: AppContext, user: SessionUser, runId: string): Promise<RunDto> {
-  const previous = await requireRun(user, runId);
+  const previous = await requireRun(user, runId, 'run:submit');
   const study = await Study.findByPk(previous.studyId);
   if (!study) throw notFound('Study');
   await checkQuota(ctx.sequelize, user, previous.snapshot.study.definition.estimatedNodes);
@@ -148,19 +147,19 @@ export async function rerun(ctx: AppContext, user: SessionUser, runId: string): 
  * between iterations (pg-boss's own cancel only changes its job row; it cannot stop a handler).
  */
 export async function cancelRun(ctx: AppContext, user: SessionUser, runId: string): Promise<RunDto> {
-  const run = await requireRun(user, runId);
-  if (isFinalRunStatus(run.status)) throw new HttpError(409, `The run has already ${run.status === 'cancelled' ? 'been cancelled' : run.status}`);
+  const run = await requireRun(user, runId, 'run:cancel');
+  if (isFinalRunState(run.state)) throw new HttpError(409, `The run has already ${run.state === 'cancelled' ? 'been cancelled' : run.state}`);
   const [cancelledQueued] = await Run.update(
-    { status: 'cancelled', cancelRequestedAt: new Date(), finishedAt: new Date(), message: `Cancelled by ${user.name} before it started` },
-    { where: { id: run.id, status: 'queued' } },
+    { state: 'cancelled', cancelRequestedAt: new Date(), finishedAt: new Date(), message: `Cancelled by ${user.name} before it started` },
+    { where: { id: run.id, state: 'queued' } },
   );
   if (cancelledQueued === 1) {
     if (run.jobId) await ctx.queue.cancel(run.jobId).catch((err: unknown) => ctx.logger.warn({ err, runId }, 'job cancel failed'));
   } else {
-    await Run.update({ cancelRequestedAt: new Date() }, { where: { id: run.id, status: 'running', cancelRequestedAt: null } });
+    await Run.update({ cancelRequestedAt: new Date() }, { where: { id: run.id, state: 'running', cancelRequestedAt: null } });
   }
   await run.reload();
-  await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: 'run.cancel', targetType: 'run', targetId: run.id, detail: { status: run.status } });
+  await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: 'run.cancel', targetType: 'run', targetId: run.id, detail: { state: run.state } });
   await publishStatus(ctx, run);
   return toRunDto(ctx.sequelize, run);
 }
@@ -172,8 +171,8 @@ export async function listStudyRuns(sequelize: Sequelize, user: SessionUser, stu
 }
 
 export async function requestReview(ctx: AppContext, user: SessionUser, runId: string): Promise<RunDto> {
-  const run = await requireRun(user, runId);
-  if (run.status !== 'succeeded') throw new HttpError(409, 'Only a run that succeeded can be reviewed');
+  const run = await requireRun(user, runId, 'run:submit');
+  if (run.state !== 'succeeded') throw new HttpError(409, 'Only a run that succeeded can be reviewed');
   if (run.reviewStatus === 'approved') throw new HttpError(409, 'The run is already approved');
   await run.update({ reviewStatus: 'requested' });
   await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: 'run.review-request', targetType: 'run', targetId: run.id });
@@ -181,15 +180,15 @@ export async function requestReview(ctx: AppContext, user: SessionUser, runId: s
 }
 
 export async function reviewRun(ctx: AppContext, user: SessionUser, runId: string, decision: 'approve' | 'reject', reason: string): Promise<RunDto> {
-  const run = await requireRun(user, runId);
-  if (run.status !== 'succeeded') throw new HttpError(409, 'Only a run that succeeded can be reviewed');
+  const run = await requireRun(user, runId, 'run:review');
+  if (run.state !== 'succeeded') throw new HttpError(409, 'Only a run that succeeded can be reviewed');
   if (run.reviewStatus === 'approved' || run.reviewStatus === 'rejected') throw new HttpError(409, `The run has already been ${run.reviewStatus}`);
-  if (decision === 'reject' && !reason.trim()) throw new HttpError(422, 'Say why the run is rejected', 'invalid');
+  if (decision === 'reject' && !reason.trim()) throw new HttpError(422, 'Say why the run is rejected', 'validation_failed');
   if (decision === 'approve') {
     const ids = run.snapshot.materials.map((m) => m.versionId);
     const approved = await MaterialVersion.count({ where: { id: { [Op.in]: ids }, status: 'approved' } });
     if (approved !== ids.length) {
-      throw new HttpError(409, 'Every material version the run used must be approved before the run can be', 'material-not-approved');
+      throw new HttpError(409, 'Every material version the run used must be approved before the run can be', 'conflict');
     }
   }
   await run.update({ reviewStatus: decision === 'approve' ? 'approved' : 'rejected', reviewedBy: user.id, reviewedAt: new Date(), reviewReason: reason });

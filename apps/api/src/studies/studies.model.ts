@@ -5,6 +5,7 @@ export class Study extends Model<InferAttributes<Study>, InferCreationAttributes
   declare id: CreationOptional<string>;
   declare projectId: string;
   declare name: string;
+  declare isDemo: CreationOptional<boolean>;
   declare description: CreationOptional<string>;
   declare definition: StudyDefinition;
   /** Raised on every save, so a run can say which revision it froze. */
@@ -20,6 +21,7 @@ export function initStudyModels(sequelize: Sequelize): void {
       id: { type: DataTypes.UUID, primaryKey: true, defaultValue: DataTypes.UUIDV4 },
       projectId: { type: DataTypes.UUID, allowNull: false },
       name: { type: DataTypes.TEXT, allowNull: false },
+      isDemo: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
       definition: { type: DataTypes.JSONB, allowNull: false },
       revision: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },

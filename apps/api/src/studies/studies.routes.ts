@@ -3,7 +3,7 @@ import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { description, idParams, name, projectParams, uuid } from '../http/common-schemas';
 import { studyDefinitionEnvelope } from './study-definition';
-import { createStudy, listStudies, requireStudy, toStudyDto, updateStudy } from './studies.service';
+import { createStudy, listStudySummaries, requireStudy, toStudyDto, updateStudy } from './studies.service';
 
 const studyDto = z.object({
   id: uuid, projectId: uuid, name: z.string(), description: z.string(), definition: z.record(z.string(), z.unknown()),
@@ -15,11 +15,17 @@ export function registerStudyRoutes(api: ApiRouter, ctx: AppContext): void {
   api
     .add({
       method: 'get', path: '/projects/:projectId/studies', tag, access: 'user', summary: 'Studies of a project',
-      params: projectParams, response: z.array(studyDto),
-      handler: ({ user, params }) => listStudies(user, params.projectId),
+      params: projectParams,
+      response: z.object({
+        items: z.array(z.object({
+          id: uuid, name: z.string(), template: z.string(), description: z.string(), isDemo: z.boolean(), updatedAt: z.string(),
+          createdBy: z.object({ id: uuid, name: z.string() }).nullable(),
+        })),
+      }),
+      handler: async ({ user, params }) => ({ items: await listStudySummaries(user, params.projectId) }),
     })
     .add({
-      method: 'post', path: '/projects/:projectId/studies', tag, access: 'study:write', summary: 'Create a study',
+      method: 'post', path: '/projects/:projectId/studies', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Create a study',
       params: projectParams, body: z.object({ name, description, definition: studyDefinitionEnvelope }), response: studyDto,
       handler: ({ user, params, body }) => createStudy(ctx.sequelize, user, params.projectId, body),
     })
@@ -29,7 +35,7 @@ export function registerStudyRoutes(api: ApiRouter, ctx: AppContext): void {
       handler: async ({ user, params }) => toStudyDto(await requireStudy(user, params.id)),
     })
     .add({
-      method: 'patch', path: '/studies/:id', tag, access: 'study:write', summary: 'Edit a study (send the revision you edited)',
+      method: 'patch', path: '/studies/:id', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Edit a study (send the revision you edited)',
       params: idParams,
       body: z.object({ name: name.optional(), description: z.string().max(5000).optional(), definition: studyDefinitionEnvelope.optional(), revision: z.number().int().positive() }),
       response: studyDto,

@@ -1,10 +1,12 @@
 import { Op, type Sequelize } from 'sequelize';
 import { HttpError, notFound } from '../http/errors';
 import type { SessionUser } from '../auth/session-user';
-import { requireProject } from '../projects/projects.service';
+import { requireProject, requireProjectOf } from '../projects/projects.service';
+import type { Permission } from '../auth/permissions';
 import { audit } from '../audit/audit.service';
 import { Material, MaterialVersion } from '../materials/materials.model';
 import { Study } from './studies.model';
+import { User } from '../users/users.model';
 import { materialVersionIdsOf, type StudyDefinition } from './study-definition';
 
 export interface StudyDto {
@@ -25,12 +27,10 @@ export function toStudyDto(s: Study): StudyDto {
   };
 }
 
-export async function requireStudy(user: SessionUser, id: string): Promise<Study> {
+export async function requireStudy(user: SessionUser, id: string, permission: Permission = 'project:read'): Promise<Study> {
   const s = await Study.findByPk(id);
   if (!s) throw notFound('Study');
-  await requireProject(user, s.projectId).catch(() => {
-    throw notFound('Study');
-  });
+  await requireProjectOf(user, s.projectId, permission, 'Study');
   return s;
 }
 
@@ -42,14 +42,35 @@ export async function checkMaterialsBelong(projectId: string, definition: StudyD
   const ok = new Set(materials.map((m) => m.id));
   const missing = ids.filter((id) => !versions.some((v) => v.id === id && ok.has(v.materialId)));
   if (missing.length) {
-    throw new HttpError(422, `Material version(s) not found in this project: ${missing.join(', ')}`, 'invalid', missing.map((id) => ({ path: 'definition.materials', message: `unknown material version ${id}` })));
+    throw new HttpError(422, `Material version(s) not found in this project: ${missing.join(', ')}`, 'validation_failed', missing.map((id) => ({ path: 'definition.materials', message: `unknown material version ${id}` })));
   }
   return versions;
 }
 
-export async function listStudies(user: SessionUser, projectId: string): Promise<StudyDto[]> {
+export interface StudySummaryDto {
+  id: string;
+  name: string;
+  /** Template name, or "mesh" for an uploaded mesh. */
+  template: string;
+  description: string;
+  isDemo: boolean;
+  updatedAt: string;
+  createdBy: { id: string; name: string } | null;
+}
+
+export async function listStudySummaries(user: SessionUser, projectId: string): Promise<StudySummaryDto[]> {
   await requireProject(user, projectId);
-  return (await Study.findAll({ where: { projectId }, order: [['updatedAt', 'DESC']] })).map(toStudyDto);
+  const studies = await Study.findAll({ where: { projectId }, order: [['updatedAt', 'DESC']] });
+  const authors = await User.findAll({ where: { id: { [Op.in]: studies.map((s) => s.createdBy).filter((id): id is string => id !== null) } } });
+  const nameOf = new Map(authors.map((u) => [u.id, u.name]));
+  return studies.map((s) => {
+    const def = s.definition as { template?: unknown; mesh?: unknown };
+    const template = typeof def.template === 'string' ? def.template : def.mesh ? 'mesh' : '';
+    return {
+      id: s.id, name: s.name, template, description: s.description, isDemo: s.isDemo, updatedAt: s.updatedAt.toISOString(),
+      createdBy: s.createdBy ? { id: s.createdBy, name: nameOf.get(s.createdBy) ?? '' } : null,
+    };
+  });
 }
 
 export async function createStudy(
@@ -58,7 +79,7 @@ export async function createStudy(
   projectId: string,
   input: { name: string; description: string; definition: StudyDefinition },
 ): Promise<StudyDto> {
-  await requireProject(user, projectId);
+  await requireProject(user, projectId, 'study:write');
   await checkMaterialsBelong(projectId, input.definition);
   const s = await Study.create({ projectId, ...input, createdBy: user.id });
   await audit(sequelize, { userId: user.id, projectId, action: 'study.create', targetType: 'study', targetId: s.id, detail: { name: s.name } });
@@ -71,10 +92,10 @@ export async function updateStudy(
   id: string,
   patch: { name?: string; description?: string; definition?: StudyDefinition; revision: number },
 ): Promise<StudyDto> {
-  const s = await requireStudy(user, id);
+  const s = await requireStudy(user, id, 'study:write');
   // Optimistic concurrency: two analysts editing the same study must not silently overwrite.
   if (patch.revision !== s.revision) {
-    throw new HttpError(409, `The study was changed by someone else (revision ${s.revision}); reload it first`, 'stale-revision');
+    throw new HttpError(409, `The study was changed by someone else (revision ${s.revision}); reload it first`, 'conflict');
   }
   if (patch.definition) await checkMaterialsBelong(s.projectId, patch.definition);
   const { revision: _r, ...fields } = patch;

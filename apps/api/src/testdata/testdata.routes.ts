@@ -10,18 +10,18 @@ import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { HttpError, notFound } from '../http/errors';
 import { idParams, projectParams, uuid } from '../http/common-schemas';
-import { requireProject } from '../projects/projects.service';
+import { requireProject, requireProjectOf } from '../projects/projects.service';
 import { audit } from '../audit/audit.service';
 
 export const MAX_TEST_DATA_BYTES = 20 * 1024 * 1024;
 
 const testDataDto = z.object({
   id: uuid, projectId: uuid, name: z.string(), kind: z.enum(['dsc', 'tensile', 'other']), temperature: z.number().nullable(),
-  notes: z.string(), fileName: z.string(), contentType: z.string(), size: z.number(), createdAt: z.string(),
+  notes: z.string(), filename: z.string(), contentType: z.string(), size: z.number(), isDemo: z.boolean(), createdAt: z.string(),
 });
 type TestDataDto = z.infer<typeof testDataDto>;
 
-const COLUMNS = `id, project_id AS "projectId", name, kind, temperature, notes, file_name AS "fileName", content_type AS "contentType", size, created_at AS "createdAt"`;
+const COLUMNS = `id, project_id AS "projectId", name, kind, temperature, notes, file_name AS "filename", content_type AS "contentType", size, is_demo AS "isDemo", created_at AS "createdAt"`;
 
 export const uploadSingleFile: RequestHandler = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_TEST_DATA_BYTES, files: 1 } }).single('file');
 
@@ -31,15 +31,15 @@ export function registerTestDataRoutes(api: ApiRouter, ctx: AppContext): void {
   api
     .add({
       method: 'get', path: '/projects/:projectId/test-data', tag, access: 'user', summary: 'Uploaded measurements of a project',
-      params: projectParams, response: z.array(testDataDto),
+      params: projectParams, response: z.object({ items: z.array(testDataDto) }),
       handler: async ({ user, params }) => {
         await requireProject(user, params.projectId);
         const rows = await ctx.sequelize.query<TestDataDto>(`SELECT ${COLUMNS} FROM test_data WHERE project_id = :projectId ORDER BY created_at DESC`, { replacements: params, type: QueryTypes.SELECT });
-        return rows.map(fix);
+        return { items: rows.map(fix) };
       },
     })
     .add({
-      method: 'post', path: '/projects/:projectId/test-data', tag, access: 'testdata:write',
+      method: 'post', path: '/projects/:projectId/test-data', tag, access: 'user', description: 'Project analysts and admins.',
       summary: 'Upload a CSV (multipart: file, name, kind = dsc | tensile | other, temperature in °C for tensile)',
       params: projectParams,
       before: [uploadSingleFile],
@@ -52,10 +52,10 @@ export function registerTestDataRoutes(api: ApiRouter, ctx: AppContext): void {
       }),
       response: testDataDto,
       handler: async ({ user, params, body, req }) => {
-        await requireProject(user, params.projectId);
+        await requireProject(user, params.projectId, 'testdata:write');
         const file = req.file;
-        if (!file) throw new HttpError(422, 'Attach the file as the multipart field "file"', 'invalid');
-        if (body.kind === 'tensile' && body.temperature === undefined) throw new HttpError(422, 'A tensile curve needs its test temperature (°C)', 'invalid');
+        if (!file) throw new HttpError(422, 'Attach the file as the multipart field "file"', 'validation_failed');
+        if (body.kind === 'tensile' && body.temperature === undefined) throw new HttpError(422, 'A tensile curve needs its test temperature (°C)', 'validation_failed');
         const [row] = await ctx.sequelize.query<TestDataDto>(
           `INSERT INTO test_data (project_id, name, kind, temperature, notes, file_name, content_type, size, content, uploaded_by)
            VALUES (:projectId, :name, :kind, :temperature, :notes, :fileName, :contentType, :size, :content, :userId) RETURNING ${COLUMNS}`,
@@ -77,9 +77,7 @@ export function registerTestDataRoutes(api: ApiRouter, ctx: AppContext): void {
           { replacements: params, type: QueryTypes.SELECT },
         );
         if (!row) throw notFound('Test data');
-        await requireProject(user, row.projectId).catch(() => {
-          throw notFound('Test data');
-        });
+        await requireProjectOf(user, row.projectId, 'project:read', 'Test data');
         res.setHeader('Content-Type', row.contentType);
         res.setHeader('Content-Disposition', `attachment; filename="${row.fileName.replace(/[^A-Za-z0-9._-]/g, '_')}"`);
         res.send(row.content);

@@ -13,24 +13,25 @@ CREATE TABLE users (
   id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
   email text NOT NULL UNIQUE CHECK (email = lower(email)),
   name text NOT NULL,
-  password_hash text,
-  role text NOT NULL CHECK (role IN ('admin', 'analyst', 'reviewer', 'viewer')),
-  active boolean NOT NULL DEFAULT true,
+  password_hash text NOT NULL,
+  -- Site admins manage users, invitations and the whole queue; roles live on memberships.
+  is_admin boolean NOT NULL DEFAULT false,
+  disabled boolean NOT NULL DEFAULT false,
+  is_demo boolean NOT NULL DEFAULT false,
   max_active_runs integer NOT NULL DEFAULT 4 CHECK (max_active_runs > 0),
   max_nodes integer NOT NULL DEFAULT 200000 CHECK (max_nodes > 0),
+  last_login_at timestamptz,
   created_at timestamptz NOT NULL DEFAULT now(),
   updated_at timestamptz NOT NULL DEFAULT now()
 );
 
--- One-time links: invitations and password resets. Only a hash of the token is stored.
-CREATE TABLE user_tokens (
+-- One-time password-reset links. Only a hash of the token is stored.
+CREATE TABLE password_resets (
   id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
-  kind text NOT NULL CHECK (kind IN ('invite', 'reset')),
   user_id uuid NOT NULL REFERENCES users(id) ON DELETE CASCADE,
   token_hash text NOT NULL UNIQUE,
   expires_at timestamptz NOT NULL,
   used_at timestamptz,
-  created_by uuid REFERENCES users(id) ON DELETE SET NULL,
   created_at timestamptz NOT NULL DEFAULT now()
 );
 
@@ -38,6 +39,7 @@ CREATE TABLE projects (
   id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
   name text NOT NULL UNIQUE,
   description text NOT NULL DEFAULT '',
+  is_demo boolean NOT NULL DEFAULT false,
   created_by uuid REFERENCES users(id) ON DELETE SET NULL,
   created_at timestamptz NOT NULL DEFAULT now(),
   updated_at timestamptz NOT NULL DEFAULT now()
@@ -46,15 +48,31 @@ CREATE TABLE projects (
 CREATE TABLE project_members (
   project_id uuid NOT NULL REFERENCES projects(id) ON DELETE CASCADE,
   user_id uuid NOT NULL REFERENCES users(id) ON DELETE CASCADE,
+  role text NOT NULL CHECK (role IN ('admin', 'analyst', 'reviewer', 'viewer')),
   added_at timestamptz NOT NULL DEFAULT now(),
   PRIMARY KEY (project_id, user_id)
 );
 CREATE INDEX project_members_user_idx ON project_members(user_id);
 
+-- Invitations into a project with a role; the account is created when the link is accepted.
+CREATE TABLE invitations (
+  id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
+  email text NOT NULL CHECK (email = lower(email)),
+  project_id uuid NOT NULL REFERENCES projects(id) ON DELETE CASCADE,
+  role text NOT NULL CHECK (role IN ('admin', 'analyst', 'reviewer', 'viewer')),
+  token_hash text NOT NULL UNIQUE,
+  expires_at timestamptz NOT NULL,
+  accepted_at timestamptz,
+  revoked_at timestamptz,
+  invited_by uuid REFERENCES users(id) ON DELETE SET NULL,
+  created_at timestamptz NOT NULL DEFAULT now()
+);
+
 CREATE TABLE materials (
   id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
   project_id uuid NOT NULL REFERENCES projects(id) ON DELETE CASCADE,
   name text NOT NULL,
+  is_demo boolean NOT NULL DEFAULT false,
   description text NOT NULL DEFAULT '',
   created_by uuid REFERENCES users(id) ON DELETE SET NULL,
   created_at timestamptz NOT NULL DEFAULT now(),
@@ -84,6 +102,7 @@ CREATE TABLE test_data (
   id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
   project_id uuid NOT NULL REFERENCES projects(id) ON DELETE CASCADE,
   name text NOT NULL,
+  is_demo boolean NOT NULL DEFAULT false,
   kind text NOT NULL CHECK (kind IN ('dsc', 'tensile', 'other')),
   -- Test temperature of an isothermal tensile curve (°C); null for DSC traces.
   temperature double precision,
@@ -101,6 +120,7 @@ CREATE TABLE studies (
   id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
   project_id uuid NOT NULL REFERENCES projects(id) ON DELETE CASCADE,
   name text NOT NULL,
+  is_demo boolean NOT NULL DEFAULT false,
   description text NOT NULL DEFAULT '',
   definition jsonb NOT NULL,
   revision integer NOT NULL DEFAULT 1,
@@ -127,7 +147,7 @@ CREATE TABLE runs (
   study_id uuid NOT NULL REFERENCES studies(id) ON DELETE CASCADE,
   sweep_id uuid REFERENCES sweeps(id) ON DELETE SET NULL,
   number integer NOT NULL,
-  status text NOT NULL CHECK (status IN ('draft', 'queued', 'running', 'succeeded', 'failed', 'cancelled')),
+  state text NOT NULL CHECK (state IN ('draft', 'queued', 'running', 'succeeded', 'failed', 'cancelled')),
   snapshot jsonb NOT NULL,
   solver_version text NOT NULL,
   job_id text,
@@ -146,8 +166,9 @@ CREATE TABLE runs (
   review_reason text NOT NULL DEFAULT '',
   UNIQUE (study_id, number)
 );
-CREATE INDEX runs_queue_idx ON runs(status, queued_at);
-CREATE INDEX runs_submitter_idx ON runs(submitted_by, status);
+CREATE INDEX runs_queue_idx ON runs(state, queued_at);
+CREATE INDEX runs_submitter_idx ON runs(submitted_by, state);
+CREATE INDEX runs_project_idx ON runs(project_id, created_at DESC);
 
 -- Convergence log (one row per Newton iteration) and converged frames' history values.
 CREATE TABLE run_iterations (
@@ -218,15 +239,15 @@ CREATE TABLE audit_log (
 );
 CREATE INDEX audit_log_project_idx ON audit_log(project_id, at DESC);
 
--- Mails when no SMTP server is configured (development): admins can read them in the app.
-CREATE TABLE mail_outbox (
-  id uuid PRIMARY KEY DEFAULT gen_random_uuid(),
-  to_address text NOT NULL,
+-- Mails received by the local fake SMTP server (development and tests only), readable by admins.
+CREATE TABLE captured_mail (
+  id bigserial PRIMARY KEY,
+  from_address text NOT NULL,
+  to_addresses text[] NOT NULL,
   subject text NOT NULL,
-  body_text text NOT NULL,
-  created_at timestamptz NOT NULL DEFAULT now(),
-  sent_at timestamptz,
-  error text
+  text_body text NOT NULL,
+  raw text NOT NULL,
+  received_at timestamptz NOT NULL DEFAULT now()
 );
 
 -- Worker heartbeats for the admin's queue overview.
@@ -234,6 +255,7 @@ CREATE TABLE workers (
   id text PRIMARY KEY,
   hostname text NOT NULL,
   pid integer NOT NULL,
+  version text NOT NULL DEFAULT '',
   started_at timestamptz NOT NULL DEFAULT now(),
   last_seen_at timestamptz NOT NULL DEFAULT now(),
   current_run_id uuid
