@@ -1,0 +1,72 @@
+/**
+ * Lamé thick cylinder under internal pressure (closed form, e.g. Timoshenko & Goodier, Theory of
+ * Elasticity, §28): a = 10, b = 20 mm, p = 100 MPa, E = 200 GPa, ν = 0.3.
+ *   σ_rr(r) = A − B/r², σ_θθ(r) = A + B/r², A = p a²/(b² − a²), B = p a² b²/(b² − a²)
+ *   → σ_θθ(a) = 166.67 MPa, σ_rr(a) = −100 MPa.
+ *   u(a), plane strain: (1+ν)a/E·[(1 − 2ν)A + B/a²] = 9.5333e-3 mm;
+ *   closed ends (axisymmetric, σ_zz = A): a/E·[σ_θθ − ν(σ_rr + σ_zz)] = 9.3333e-3 mm.
+ */
+import { describe, it } from 'vitest';
+import type { ModelInput } from '@phaseloop/shared';
+import { ellipticRing, rectangle } from '../mesh/structured';
+import { recoverNodal } from '../output/recovery';
+import { check, nodeAt, solveModel } from './support';
+
+const a = 10, b = 20, p = 100, E = 200000, nu = 0.3;
+const A = (p * a * a) / (b * b - a * a);
+const B = (p * a * a * b * b) / (b * b - a * a);
+const sigmaTT = A + B / (a * a);
+const sigmaRR = A - B / (a * a);
+const uPlaneStrain = ((1 + nu) * a / E) * ((1 - 2 * nu) * A + B / (a * a));
+const uClosedEnd = (a / E) * (sigmaTT - nu * (sigmaRR + A));
+const SOURCE = 'Lamé thick cylinder, closed form (Timoshenko & Goodier, Theory of Elasticity)';
+const SUITE = 'Elements: closed-form solutions';
+
+describe('Lamé thick cylinder', () => {
+  it('plane strain quarter annulus (Q8)', () => {
+    const mesh = ellipticRing({ inner: { a, b: a }, outer: { a: b, b }, nAround: 8, nRadial: 8, ratio: 2 }, { type: 'q8', section: 's', material: 'steel' });
+    const model: ModelInput = {
+      format: 'phaseloop-model/1',
+      ...mesh,
+      sections: { s: { kind: 'continuum', analysis: 'planeStrain', thickness: 1 } },
+      materials: { steel: { model: 'linear-elastic', E, nu } },
+      supports: [
+        { type: 'symmetry', set: 'start', normal: 'y' },
+        { type: 'symmetry', set: 'end', normal: 'x' },
+      ],
+      loads: [{ type: 'pressure', name: 'p', edgeSet: 'inner' }],
+      segments: [{ name: 'pressurise', targets: { p }, increments: { initial: 1, min: 0.1, max: 1 } }],
+    };
+    const { problem, last } = solveModel(model);
+    const s = recoverNodal(problem, last.pointStress, 6);
+    const n = nodeAt(problem, a, 0);
+    // On the x axis the hoop direction is y and the radial direction x.
+    check({ suite: SUITE, name: 'Lamé plane strain, Q8: σ_θθ(a)', computed: s[6 * n + 1], target: sigmaTT, unit: 'MPa', tolerance: 0.01, source: SOURCE, tag: 'closed' });
+    check({ suite: SUITE, name: 'Lamé plane strain, Q8: σ_rr(a)', computed: s[6 * n], target: sigmaRR, unit: 'MPa', tolerance: 0.01, source: SOURCE, tag: 'closed' });
+    check({ suite: SUITE, name: 'Lamé plane strain, Q8: u_r(a)', computed: last.displacement[3 * n], target: uPlaneStrain, unit: 'mm', tolerance: 0.002, source: SOURCE, tag: 'closed' });
+  });
+
+  it('axisymmetric closed-end cylinder (Q8)', () => {
+    // r–z strip; the end cap's pull is an axial traction σ_zz = A on the top edge.
+    const mesh = rectangle({ x0: a, y0: 0, width: b - a, height: 1, nx: 20, ny: 1 }, { type: 'q8', section: 'ring', material: 'steel' });
+    const model: ModelInput = {
+      format: 'phaseloop-model/1',
+      ...mesh,
+      sections: { ring: { kind: 'continuum', analysis: 'axisymmetric' } },
+      materials: { steel: { model: 'linear-elastic', E, nu } },
+      supports: [{ type: 'fixed', set: 'bottom', dofs: ['uy'] }],
+      loads: [
+        { type: 'pressure', name: 'p', edgeSet: 'left' },
+        { type: 'traction', name: 'cap', edgeSet: 'top', direction: [0, 1] },
+      ],
+      segments: [{ name: 'pressurise', targets: { p, cap: A }, increments: { initial: 1, min: 0.1, max: 1 } }],
+    };
+    const { problem, last } = solveModel(model);
+    const s = recoverNodal(problem, last.pointStress, 6);
+    const n = nodeAt(problem, a, 0);
+    // Axisymmetric stress order: rr, zz, θθ.
+    check({ suite: SUITE, name: 'Lamé axisymmetric closed end, Q8: σ_θθ(a)', computed: s[6 * n + 2], target: sigmaTT, unit: 'MPa', tolerance: 0.01, source: SOURCE, tag: 'closed' });
+    check({ suite: SUITE, name: 'Lamé axisymmetric closed end, Q8: σ_rr(a)', computed: s[6 * n], target: sigmaRR, unit: 'MPa', tolerance: 0.01, source: SOURCE, tag: 'closed' });
+    check({ suite: SUITE, name: 'Lamé axisymmetric closed end, Q8: u_r(a)', computed: last.displacement[3 * n], target: uClosedEnd, unit: 'mm', tolerance: 0.002, source: SOURCE, tag: 'closed' });
+  });
+});
