@@ -1,0 +1,212 @@
+/**
+ * Sparse direct solver benchmark: plane-stress Q4 unit squares of ~20k, ~100k and ~400k unknowns
+ * (E = 70000, ν = 0.33, clamped at x = 0, edge load at x = 1). Times our analysis, factorisation
+ * and solve (min of 3) and, on the same matrix in the same run, SuiteSparse CHOLMOD with METIS
+ * (/work/shared/bench/cholmod-ref/run.sh), then writes the ratios to bench/results.md.
+ * Also times the non-symmetric LU path at ~100k against the symmetric one.
+ *
+ *   npx tsx bench/solver.bench.ts                    all sizes
+ *   SOLVER_BENCH_SIZES=100,223 npx tsx bench/...     elements per side to run
+ *   CHOLMOD_REF=/path/run.sh                         reference driver (default: shared one)
+ * Each size runs in a child process so that its peak RSS is its own.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { csrResidual, norm2 } from '../packages/fe-core/src/solve/linear/csr';
+import { SupernodalLu } from '../packages/fe-core/src/solve/linear/lu';
+import { SupernodalLdlt } from '../packages/fe-core/src/solve/linear/supernodal';
+import type { CsrMatrix, SparseDirectSolver } from '../packages/fe-core/src/solve/linear/types';
+import { machineInfo, machineLine } from './lib/machine';
+import { q4Square } from './lib/q4';
+import { markdownTable, writeSection } from './lib/results';
+import { minTime, peakRssMiB } from './lib/timing';
+
+const SELF = fileURLToPath(import.meta.url);
+const REPS = 3;
+
+interface OurResult {
+  readonly mode: 'ldlt' | 'lu';
+  readonly dof: number;
+  readonly nnzA: number;
+  readonly analyse: number;
+  readonly factor: number;
+  readonly solve: number;
+  readonly factorAll: number[];
+  readonly nnzL: number;
+  readonly stored: number;
+  readonly flops: number;
+  readonly supernodes: number;
+  readonly relres: number;
+  readonly tipUy: number;
+  readonly refinementSteps: number;
+  readonly peakRssMiB: number;
+  readonly factorMiB: number;
+}
+
+interface CholmodResult {
+  readonly analyze: { min: number };
+  readonly factor: { min: number };
+  readonly solve: { min: number };
+  readonly nnzL: number;
+  readonly flops: number;
+  readonly relres: number;
+  readonly tip_uy: number;
+  readonly peak_rss_mib: number;
+}
+
+/** Lower triangle in CSC (= upper rows of the symmetric CSR) plus rhs, in the cholmod-ref format. */
+function writeCholmodBin(file: string, A: CsrMatrix, b: Float64Array): void {
+  const { n, rowPtr, colIdx, values } = A;
+  const colptr = new BigInt64Array(n + 1);
+  let nnz = 0;
+  for (let j = 0; j < n; j++) {
+    for (let p = rowPtr[j]; p < rowPtr[j + 1]; p++) if (colIdx[p] >= j) nnz++;
+    colptr[j + 1] = BigInt(nnz);
+  }
+  const rowidx = new BigInt64Array(nnz);
+  const vals = new Float64Array(nnz);
+  let t = 0;
+  for (let j = 0; j < n; j++)
+    for (let p = rowPtr[j]; p < rowPtr[j + 1]; p++)
+      if (colIdx[p] >= j) {
+        rowidx[t] = BigInt(colIdx[p]);
+        vals[t++] = values[p];
+      }
+  const header = BigInt64Array.from([BigInt(n), BigInt(nnz)]);
+  const parts = [header, colptr, rowidx, vals, b].map((a) => Buffer.from(a.buffer, a.byteOffset, a.byteLength));
+  writeFileSync(file, Buffer.concat(parts));
+}
+
+/** A non-symmetric tangent on the same pattern: upper couplings scaled by 1 ± 10 %. */
+function skewed(A: CsrMatrix): CsrMatrix {
+  const values = A.values.slice();
+  for (let i = 0; i < A.n; i++)
+    for (let p = A.rowPtr[i]; p < A.rowPtr[i + 1]; p++)
+      if (A.colIdx[p] > i) values[p] *= 1 + 0.1 * Math.sin(7.1 * i + A.colIdx[p]);
+  return { ...A, values };
+}
+
+function runCase(nx: number, mode: 'ldlt' | 'lu', bin: string | null): OurResult {
+  const P = q4Square(nx);
+  const A = mode === 'lu' ? skewed(P.A) : P.A;
+  if (bin) writeCholmodBin(bin, P.A, P.b);
+  const solver: SparseDirectSolver = mode === 'lu' ? new SupernodalLu() : new SupernodalLdlt();
+  const opts = { symmetric: mode === 'ldlt', coordinates: P.coordinates };
+  const ta = minTime(REPS, () => solver.analyse(A, opts));
+  const tf = minTime(REPS, () => solver.factor(A));
+  const x = new Float64Array(A.n);
+  const ts = minTime(REPS, () => solver.solve(P.b, x));
+  const r = csrResidual(A, x, P.b, new Float64Array(A.n));
+  const st = solver.stats();
+  return {
+    mode,
+    dof: A.n,
+    nnzA: A.rowPtr[A.n],
+    analyse: ta.seconds,
+    factor: tf.seconds,
+    solve: ts.seconds,
+    factorAll: tf.all,
+    nnzL: st.nnzL,
+    stored: st.storedEntries ?? 0,
+    flops: st.flops,
+    supernodes: st.supernodes,
+    relres: norm2(r) / norm2(P.b),
+    tipUy: x[P.tipUy],
+    refinementSteps: solver instanceof SupernodalLu ? solver.lastRefinementSteps : 0,
+    peakRssMiB: peakRssMiB(),
+    factorMiB: ((st.storedEntries ?? 0) * 8) / 2 ** 20,
+  };
+}
+
+function child(nx: number, mode: 'ldlt' | 'lu', bin: string | null): OurResult {
+  const args = ['--import', 'tsx', SELF, '--case', String(nx), mode];
+  if (bin) args.push(bin);
+  const res = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 24 });
+  if (res.status !== 0) throw new Error(`benchmark case ${nx} ${mode} failed:\n${res.stderr}`);
+  const line = res.stdout.trim().split('\n').pop()!;
+  return JSON.parse(line) as OurResult;
+}
+
+function cholmod(bin: string): CholmodResult | null {
+  const runSh = process.env.CHOLMOD_REF ?? '/work/shared/bench/cholmod-ref/run.sh';
+  if (!existsSync(runSh)) return null;
+  const res = spawnSync('bash', [runSh, bin, 'metis', 'super', String(REPS)], { encoding: 'utf8' });
+  if (res.status !== 0) {
+    console.error(`CHOLMOD reference failed: ${res.stderr}`);
+    return null;
+  }
+  return JSON.parse(res.stdout.trim().split('\n').pop()!) as CholmodResult;
+}
+
+const fmt = (s: number): string => (s >= 1 ? s.toFixed(2) : s >= 0.1 ? s.toFixed(3) : s.toFixed(4));
+const mega = (v: number): string => `${(v / 1e6).toFixed(2)}M`;
+const ratio = (a: number, b: number | undefined): string => (b ? `${(a / b).toFixed(2)}×` : '–');
+
+function main(): void {
+  const sizes = (process.env.SOLVER_BENCH_SIZES ?? '100,223,447').split(',').map(Number);
+  const dir = join(tmpdir(), 'phaseloop-bench');
+  mkdirSync(dir, { recursive: true });
+  const machine = machineInfo();
+  const rows: string[][] = [];
+  const targets: Record<string, [number, number, number]> = { '223': [3, 3, 2.5], '447': [4, 4, 4] };
+  const notes: string[] = [];
+  let ldlt100: OurResult | null = null;
+  for (const nx of sizes) {
+    const bin = join(dir, `q4_${nx}.bin`);
+    const ours = child(nx, 'ldlt', bin);
+    const ref = cholmod(bin);
+    console.log(JSON.stringify({ ours, cholmod: ref }));
+    if (nx === 223) ldlt100 = ours;
+    const t = targets[String(nx)];
+    const tgt = (i: number): string => (t ? `≤ ${t[i]}×` : '');
+    const dof = `${(ours.dof / 1000).toFixed(0)}k`;
+    rows.push([dof, 'analysis', fmt(ours.analyse), ref ? fmt(ref.analyze.min) : '–', ratio(ours.analyse, ref?.analyze.min), tgt(0)]);
+    rows.push([dof, 'factorisation', fmt(ours.factor), ref ? fmt(ref.factor.min) : '–', ratio(ours.factor, ref?.factor.min), tgt(1)]);
+    rows.push([dof, 'solve', fmt(ours.solve), ref ? fmt(ref.solve.min) : '–', ratio(ours.solve, ref?.solve.min), tgt(2)]);
+    rows.push([dof, 'nnz(L)', mega(ours.nnzL), ref ? mega(ref.nnzL) : '–', ratio(ours.nnzL, ref?.nnzL), '≤ 1.2×']);
+    rows.push([dof, 'flops', `${(ours.flops / 1e9).toFixed(2)}G`, ref ? `${(ref.flops / 1e9).toFixed(2)}G` : '–', ratio(ours.flops, ref?.flops), '']);
+    rows.push([dof, 'peak RSS (MiB)', ours.peakRssMiB.toFixed(0), ref ? ref.peak_rss_mib.toFixed(0) : '–', ratio(ours.peakRssMiB, ref?.peak_rss_mib), '']);
+    notes.push(
+      `- ${dof} (${ours.dof} unknowns, nnz(A) ${mega(ours.nnzA)}): ${ours.supernodes} supernodes, stored ${mega(ours.stored)} entries ` +
+        `(${ours.factorMiB.toFixed(0)} MiB), factor ${(ours.flops / ours.factor / 1e9).toFixed(2)} GFLOPS, ` +
+        `‖Ax−b‖/‖b‖ = ${ours.relres.toExponential(1)} (CHOLMOD ${ref ? ref.relres.toExponential(1) : '–'}), ` +
+        `tip u_y = ${ours.tipUy.toExponential(6)} (CHOLMOD ${ref ? ref.tip_uy.toExponential(6) : '–'}); factor runs ${ours.factorAll.map(fmt).join(', ')} s`,
+    );
+  }
+  let luLine = '';
+  if (sizes.includes(223)) {
+    const lu = child(223, 'lu', null);
+    console.log(JSON.stringify({ lu }));
+    luLine =
+      `Non-symmetric LU path at ${lu.dof} unknowns (upper couplings scaled by 1 ± 10 %): analysis ${fmt(lu.analyse)} s, ` +
+      `factorisation ${fmt(lu.factor)} s (${ratio(lu.factor, ldlt100?.factor)} the LDLᵀ time), solve ${fmt(lu.solve)} s ` +
+      `with ${lu.refinementSteps} refinement step(s) (${ratio(lu.solve, ldlt100?.solve)}), ‖Ax−b‖/‖b‖ = ${lu.relres.toExponential(1)}, ` +
+      `factors ${lu.factorMiB.toFixed(0)} MiB, peak RSS ${lu.peakRssMiB.toFixed(0)} MiB.`;
+  }
+  const body = [
+    '## Sparse direct solver (packages/fe-core/src/solve/linear)',
+    '',
+    `Run ${machineLine(machine)}. Plane-stress Q4 unit square, E = 70000, ν = 0.33, clamped at x = 0, ` +
+      'edge load at x = 1. Ours: nested dissection on coordinates + multifrontal supernodal LDLᵀ, single ' +
+      'thread. CHOLMOD: supernodal, METIS, single thread, same matrix, same run. Seconds, min of 3.',
+    '',
+    markdownTable(['DOF', 'phase', 'ours', 'CHOLMOD', 'ratio', 'target'], rows),
+    '',
+    ...notes,
+    '',
+    luLine,
+  ].join('\n');
+  writeSection('solver', body);
+  console.log(`\n${body}\n`);
+}
+
+const argv = process.argv.slice(2);
+if (argv[0] === '--case') {
+  const res = runCase(Number(argv[1]), argv[2] === 'lu' ? 'lu' : 'ldlt', argv[3] ?? null);
+  console.log(JSON.stringify(res));
+} else {
+  main();
+}
