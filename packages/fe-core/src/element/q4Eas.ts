@@ -50,6 +50,7 @@ const full = { fint: new Float64Array(NT), K: new Float64Array(NT * NT) };
 const Kaa = new Float64Array(NA * NA);
 const piv = new Int32Array(NA);
 const dAlpha = new Float64Array(NA);
+const dAlphaPrev = new Float64Array(NA);
 const X = new Float64Array(NA * NU); // K_αα⁻¹ K_αu
 const inv = new Float64Array(4);
 const calls = { 3: new PointCall(3), 4: new PointCall(4) } as const;
@@ -141,6 +142,8 @@ export const q4Eas: ElementKernel = {
       full.fint.fill(0);
       full.K.fill(0);
       let strainScale = 0;
+      let stressMax = 0;
+      let modulus = 0;
       for (let q = 0; q < NQ; q++) {
         const Wq = W.subarray(q * 4 * NT, (q + 1) * 4 * NT);
         multiplyB(Wq, rows, NT, ua, call.strain);
@@ -150,17 +153,16 @@ export const q4Eas: ElementKernel = {
         const res = call.run(ctx, q, interpolate(N, ctx.temperature), interpolate(N, ctx.temperatureOld), out);
         if (!out.ok) return;
         accumulate(Wq, rows, NT, res.stress, res.tangent, dV[q], full, true, CB);
+        // Stress over modulus also counts as a strain size (thermal or inelastic strain with
+        // zero total strain, e.g. the first iteration of a heated step).
+        for (let r = 0; r < rows; r++) {
+          stressMax = Math.max(stressMax, Math.abs(res.stress[r]));
+          modulus = Math.max(modulus, Math.abs(res.tangent[r * rows + r]));
+        }
       }
+      if (modulus > 0) strainScale = Math.max(strainScale, stressMax / modulus);
       let hNorm = 0;
       for (let a = 0; a < NA; a++) hNorm = Math.max(hNorm, Math.abs(full.fint[NU + a]));
-      if (hNorm > hPrev && step > 1 / 64) {
-        // Residual grew: retreat halfway along the last Newton step and re-evaluate.
-        step /= 2;
-        for (let a = 0; a < NA; a++) ua[NU + a] -= step * dAlpha[a];
-        continue;
-      }
-      hPrev = hNorm;
-      step = 1;
       for (let a = 0; a < NA; a++) {
         for (let b = 0; b < NA; b++) Kaa[a * NA + b] = full.K[(NU + a) * NT + NU + b];
         dAlpha[a] = -full.fint[NU + a];
@@ -171,7 +173,7 @@ export const q4Eas: ElementKernel = {
         return;
       }
       luSolve(NA, Kaa, piv, dAlpha);
-      // Size of the correction as a strain at the Gauss points.
+      // Size of the Newton correction as a strain at the Gauss points.
       let change = 0;
       for (let q = 0; q < NQ; q++) {
         for (let r = 0; r < rows; r++) {
@@ -180,8 +182,20 @@ export const q4Eas: ElementKernel = {
           change = Math.max(change, Math.abs(s));
         }
       }
-      converged = change <= 1e-11 * strainScale + 1e-300;
-      if (!converged) for (let a = 0; a < NA; a++) ua[NU + a] += dAlpha[a];
+      converged = change <= 1e-11 * strainScale;
+      if (converged) break;
+      if (hNorm > hPrev && step > 1 / 64) {
+        // Residual grew: retreat halfway along the previous Newton step and re-evaluate.
+        step /= 2;
+        for (let a = 0; a < NA; a++) ua[NU + a] -= step * dAlphaPrev[a];
+        continue;
+      }
+      hPrev = hNorm;
+      step = 1;
+      for (let a = 0; a < NA; a++) {
+        ua[NU + a] += dAlpha[a];
+        dAlphaPrev[a] = dAlpha[a];
+      }
     }
     if (!converged) {
       out.ok = false;

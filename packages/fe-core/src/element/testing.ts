@@ -146,7 +146,15 @@ export class TestModel<P> {
         r[i] = loads[free[i]] - fint[free[i]];
         norm += r[i] * r[i];
       }
-      for (let d = 0; d < n; d++) scale = Math.max(scale, Math.abs(fint[d]), Math.abs(loads[d]));
+      // Force scale: nodal forces, or stiffness × displacement when they all vanish (free
+      // thermal expansion is stress-free, its residual is pure round-off).
+      let uMax = 0, kMax = 0;
+      for (let d = 0; d < n; d++) {
+        scale = Math.max(scale, Math.abs(fint[d]), Math.abs(loads[d]));
+        uMax = Math.max(uMax, Math.abs(this.u[d]));
+        kMax = Math.max(kMax, Math.abs(K[d * n + d]));
+      }
+      scale = Math.max(scale, kMax * uMax);
       norm = Math.sqrt(norm);
       residuals.push(norm);
       if (norm <= (options.tolerance ?? 1e-10) * Math.max(scale, 1e-30) || nf === 0) return { iterations: it, residuals, converged: true };

@@ -158,9 +158,17 @@ export class ReducedMaterial<P> {
     const { stress, tangent } = this.point;
     for (let it = 0; it < MAX_LOCAL_ITERATIONS; it++) {
       if (!this.evaluate(stateOld, oldOffset, state, newOffset)) return false;
+      // Stress scale: the active stresses, or modulus × strain size when they vanish (a freely
+      // expanding heated point has σ ≈ 0 but σ33 carries round-off of order E·αΔT·1e-16).
       let scale = 1e-300;
       for (let a = 0; a < active.length; a++) scale = Math.max(scale, Math.abs(stress[active[a]]));
-      for (let i = 0; i < KM; i++) scale = Math.max(scale, Math.abs(tangent[i * KM + i]) * 1e-12);
+      let modulus = 0;
+      let strainSize = 0;
+      for (let i = 0; i < KM; i++) {
+        modulus = Math.max(modulus, Math.abs(tangent[i * KM + i]));
+        strainSize = Math.max(strainSize, Math.abs(strain[i]));
+      }
+      scale = Math.max(scale, modulus * strainSize);
       let residual = 0;
       for (let k = 0; k < free.length; k++) residual = Math.max(residual, Math.abs(stress[free[k]]));
       if (residual <= 1e-10 * scale) return true;
