@@ -17,6 +17,13 @@ export function isFinalRunState(state: RunState): boolean {
 /** pg-boss queue the API sends to and workers consume. */
 export const SOLVE_QUEUE = 'phaseloop-solve';
 
+/**
+ * Queue settings, the same wherever the queue is created (API or worker, whichever starts first).
+ * No automatic retry of a solve that failed (it would fail the same way); pg-boss caps a job's
+ * expiry below 24 h.
+ */
+export const SOLVE_QUEUE_POLICY = { retryLimit: 0, expireInSeconds: 23 * 3600 } as const;
+
 /** The job payload is only the run id: the frozen snapshot is read from the database. */
 export const solveJobSchema = z.object({ runId: z.string().uuid() });
 export type SolveJob = z.infer<typeof solveJobSchema>;

@@ -3,7 +3,7 @@
  * id; the worker reads the frozen snapshot from the runs table.
  */
 import PgBoss from 'pg-boss';
-import { SOLVE_QUEUE, type SolveJob } from '@phaseloop/shared';
+import { SOLVE_QUEUE, SOLVE_QUEUE_POLICY, type SolveJob } from '@phaseloop/shared';
 
 export interface RunQueue {
   /** Returns the job id. */
@@ -13,17 +13,12 @@ export interface RunQueue {
   stop(): Promise<void>;
 }
 
-/**
- * Solve jobs are not retried automatically: a solve that failed once fails again the same way, and
- * the analyst decides whether to re-run. pg-boss caps a job's expiry below 24 h.
- */
-export const SOLVE_QUEUE_OPTIONS = { name: SOLVE_QUEUE, retryLimit: 0, expireInSeconds: 23 * 3600 } as const;
 
 export async function ensureSolveQueue(boss: PgBoss): Promise<void> {
   // createQueue must come before send/work: sending to a missing queue returns null silently.
   if (await boss.getQueue(SOLVE_QUEUE)) return;
   try {
-    await boss.createQueue(SOLVE_QUEUE, { ...SOLVE_QUEUE_OPTIONS });
+    await boss.createQueue(SOLVE_QUEUE, { name: SOLVE_QUEUE, ...SOLVE_QUEUE_POLICY });
   } catch (err) {
     // Another process (API or worker) may have created it at the same moment.
     if (!(await boss.getQueue(SOLVE_QUEUE))) throw err;

@@ -1,0 +1,86 @@
+#!/usr/bin/env bash
+# `npm test`: provisions what the suites need on a throw-away PostgreSQL cluster of its own (so it
+# runs beside `npm start`), then runs every suite — type checks, vitest (unit, API integration,
+# worker, cross-app integration), the web build and Playwright end to end in Debian's chromium —
+# and ends with one plain line `N passed, N failed`. Exits non-zero on any failure, and stops
+# everything it started even when a suite fails.
+set -uo pipefail
+SCRIPT_NAME=test
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$ROOT"
+source scripts/lib.sh
+
+OUT="$ROOT/.phaseloop/test"
+rm -rf "$OUT"
+mkdir -p "$OUT"
+TSX="$ROOT/node_modules/.bin/tsx"
+REPORTS=()
+
+cleanup() {
+  stop_children
+  bash scripts/db.sh stop --test >/dev/null 2>&1 || true
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+ensure_node_modules || { echo "0 passed, 1 failed"; exit 1; }
+[[ -d tests/e2e ]] && ensure_chromium
+
+# ---- database -----------------------------------------------------------------------------
+eval "$(bash scripts/db.sh start --test)" || { echo "0 passed, 1 failed"; exit 1; }
+export PHASELOOP_TEST_PG_URL
+# Databases left by an interrupted earlier run.
+psql "$PHASELOOP_TEST_PG_URL" -qAtc "SELECT datname FROM pg_database WHERE datname LIKE 'phaseloop\_%'" 2>/dev/null |
+  while read -r db; do psql "$PHASELOOP_TEST_PG_URL" -qc "DROP DATABASE IF EXISTS \"$db\" WITH (FORCE)" >/dev/null 2>&1 || true; done
+
+export PHASELOOP_VERIFICATION_LOG="$OUT/verification.jsonl"
+export NODE_ENV=test
+export LOG_LEVEL="${LOG_LEVEL:-warn}"
+
+# ---- type checks ----------------------------------------------------------------------------
+log "type checks"
+if npm run -s typecheck >"$OUT/typecheck.log" 2>&1; then
+  REPORTS+=("check:typecheck=pass")
+else
+  tail -n 40 "$OUT/typecheck.log"
+  REPORTS+=("check:typecheck=fail")
+fi
+
+# ---- vitest ---------------------------------------------------------------------------------
+log "vitest (all projects)"
+VITE_CONFIG_NATIVE_IGNORE_WARNING=true npx vitest run --reporter=default --reporter=json --outputFile.json="$OUT/vitest.json"
+REPORTS+=("vitest:$OUT/vitest.json")
+
+# ---- end to end -----------------------------------------------------------------------------
+if [[ -f tests/e2e/playwright.config.ts ]]; then
+  log "building the web app"
+  if npm run -s build -w apps/web >"$OUT/web-build.log" 2>&1; then
+    REPORTS+=("check:web-build=pass")
+    E2E_DB=phaseloop_e2e
+    psql "$PHASELOOP_TEST_PG_URL" -qc "CREATE DATABASE $E2E_DB" >/dev/null
+    export DATABASE_URL="${PHASELOOP_TEST_PG_URL%/*}/$E2E_DB"
+    "$TSX" apps/api/src/cli/setup-db.ts --seed
+    export SMTP_HOST=127.0.0.1
+    SMTP_PORT="$(free_port 25525)"
+    export SMTP_PORT
+    start_child "$TSX" apps/api/src/cli/fake-smtp.ts
+    start_child "$TSX" apps/worker/src/index.ts
+    E2E_PORT="$(free_port 4199)"
+    export E2E_PORT
+    export PLAYWRIGHT_JSON_OUTPUT_NAME="$OUT/playwright.json"
+    export PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD=1
+    log "playwright (chromium) on port $E2E_PORT"
+    npx playwright test -c tests/e2e/playwright.config.ts
+    REPORTS+=("playwright:$OUT/playwright.json")
+  else
+    tail -n 40 "$OUT/web-build.log"
+    REPORTS+=("check:web-build=fail")
+  fi
+fi
+
+# ---- verification table ---------------------------------------------------------------------
+if [[ -s "$PHASELOOP_VERIFICATION_LOG" ]]; then
+  "$TSX" scripts/render-verification.ts "$PHASELOOP_VERIFICATION_LOG" docs/verification.md || REPORTS+=("check:verification-table=fail")
+fi
+
+"$TSX" scripts/summarise-tests.ts "${REPORTS[@]}"
