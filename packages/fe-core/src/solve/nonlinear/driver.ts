@@ -18,7 +18,7 @@ import { Assembler, type AssemblyStatus } from '../../assembly/assembler';
 import { describeDof, nodalTemperatures, type Problem } from '../../assembly/problem';
 import { nearestNode, reportPoints, type Frame } from '../../output/frame';
 import { frameHistory } from '../../output/history';
-import { ProfileLuSolver } from '../fallback';
+import { defaultSolverFactory } from './solverChoice';
 import { SingularMatrixError, type SparseDirectSolver } from '../linear/types';
 
 export interface IterationInfo {
@@ -77,7 +77,7 @@ export interface AnalysisHooks {
 }
 
 export interface AnalysisOptions extends AnalysisHooks {
-  /** Sparse direct solver factory; the profile LU of solve/fallback.ts by default. */
+  /** Sparse direct solver factory; solverChoice.ts decides by default. */
   createSolver?: () => SparseDirectSolver;
   /** Keep frames in the result (default true; a worker streaming frames may turn it off). */
   keepFrames?: boolean;
@@ -165,7 +165,7 @@ class Driver {
     private readonly options: AnalysisOptions,
   ) {
     this.asm = new Assembler(problem);
-    this.solver = options.createSolver ? options.createSolver() : new ProfileLuSolver();
+    this.solver = (options.createSolver ?? defaultSolverFactory(problem))();
     this.symmetric = Object.values(problem.model.materials).every((m) => SYMMETRIC_MODELS.has(m.model));
     this.nDof = problem.nDof;
     this.nEq = this.asm.numbering.freeDofs.length;

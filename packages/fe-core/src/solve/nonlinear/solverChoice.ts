@@ -1,13 +1,20 @@
 /**
- * Which sparse direct solver the driver uses for a problem.
- *
- * The profile LU of solve/fallback.ts is exact and robust but its work grows with the square of
- * the band; it is used until the sparse direct solver of solve/linear/ is wired in here.
+ * Which sparse direct solver the driver uses for a problem: the multifrontal solvers of
+ * solve/linear/ (LDLᵀ for symmetric tangents, LU otherwise, iterative when the factor would not
+ * fit the memory budget). The profile LU of solve/fallback.ts stays available for very small
+ * models and as an independent cross-check in tests.
  */
 import type { Problem } from '../../assembly/problem';
 import { ProfileLuSolver } from '../fallback';
+import { createLinearSolver } from '../linear';
 import type { SparseDirectSolver } from '../linear/types';
 
-export function defaultSolverFactory(_problem: Problem): () => SparseDirectSolver {
-  return () => new ProfileLuSolver();
+export type SolverKind = 'auto' | 'multifrontal' | 'profile';
+
+/** Below this many unknowns the profile LU is as fast and has no set-up cost. */
+const TINY = 64;
+
+export function defaultSolverFactory(problem: Pick<Problem, 'nDof'>, kind: SolverKind = 'auto'): () => SparseDirectSolver {
+  if (kind === 'profile' || (kind === 'auto' && problem.nDof <= TINY)) return () => new ProfileLuSolver();
+  return () => createLinearSolver();
 }
