@@ -158,6 +158,9 @@ class Driver {
   private analysed = false;
   private anyConverged = false;
   private forceFloor = 0;
+  /** Force scale of the last converged increment, and of the last residual evaluation. */
+  private startScale = 0;
+  private lastScale = 0;
   private stats = { increments: 0, iterations: 0, cutBacks: 0, factorisations: 0, unknowns: 0 };
 
   constructor(
@@ -310,7 +313,11 @@ class Driver {
       const r = fint[d.dof] - this.fext[d.dof];
       R2 += r * r;
     }
-    return { norm: Math.sqrt(r2), scale: Math.max(Math.sqrt(f2), Math.sqrt(R2), this.forceFloor) };
+    // The force scale at the start of the increment counts too, so unloading to zero force is
+    // judged against the forces the structure just carried rather than against round-off.
+    const scale = Math.max(Math.sqrt(f2), Math.sqrt(R2), this.startScale, this.forceFloor);
+    this.lastScale = scale;
+    return { norm: Math.sqrt(r2), scale };
   }
 
   private *solveIncrement(
@@ -457,6 +464,7 @@ class Driver {
 
   private commitIncrement(): void {
     this.anyConverged = true;
+    this.startScale = this.lastScale;
     // The trial state of the last (converged) evaluation becomes the converged state.
     const tmp = this.stateOld;
     this.stateOld = this.state;
