@@ -10,25 +10,9 @@
 import type { CsrMatrix } from '../solve/linear/types';
 import { createElementOutput, type ElementContext, type ElementOutput } from '../element';
 import type { Problem, ProblemElement } from './problem';
+import { numberDofs, type DofNumbering } from '../constraints/dirichlet';
 
-export interface DofNumbering {
-  /** Equation number of every global dof, −1 when prescribed. */
-  readonly equation: Int32Array;
-  /** Global dof of every equation. */
-  readonly freeDofs: Int32Array;
-  readonly prescribed: Int32Array;
-}
-
-export function numberDofs(problem: Problem): DofNumbering {
-  const equation = new Int32Array(problem.nDof);
-  for (const d of problem.dirichlet) equation[d.dof] = -1;
-  let n = 0;
-  for (let i = 0; i < problem.nDof; i++) if (equation[i] === 0) equation[i] = n++;
-  const freeDofs = new Int32Array(n);
-  for (let i = 0; i < problem.nDof; i++) if (equation[i] >= 0) freeDofs[equation[i]] = i;
-  const prescribed = Int32Array.from(problem.dirichlet, (d) => d.dof);
-  return { equation, freeDofs, prescribed };
-}
+export type { DofNumbering };
 
 /** Builds the sorted full CSR pattern over the free dofs from node–element adjacency. */
 export function buildPattern(problem: Problem, numbering: DofNumbering): { rowPtr: Int32Array; colIdx: Int32Array } {

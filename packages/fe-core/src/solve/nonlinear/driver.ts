@@ -15,6 +15,7 @@
  * - A failure returns the converged frames and a reason an analyst can act on.
  */
 import { Assembler, type AssemblyStatus } from '../../assembly/assembler';
+import { recoverReactions } from '../../constraints/dirichlet';
 import { describeDof, nodalTemperatures, type Problem } from '../../assembly/problem';
 import { nearestNode, reportPoints, type Frame } from '../../output/frame';
 import { frameHistory } from '../../output/history';
@@ -483,14 +484,13 @@ class Driver {
     const p = this.problem;
     const displacement = new Float64Array(3 * p.nodeCount);
     const reaction = new Float64Array(3 * p.nodeCount);
-    const fint = this.asm.fint;
+    const R = new Float64Array(p.nDof);
+    recoverReactions(this.asm.numbering, this.asm.fint, this.fext, R);
     for (let n = 0; n < p.nodeCount; n++) {
-      for (let d = 0; d < p.dofCount[n]; d++) displacement[3 * n + d] = this.u[p.dofStart[n] + d];
-    }
-    for (const d of p.dirichlet) {
-      const { node, direction } = describeDof(p, d.dof);
-      const n = p.nodeIndex.get(node)!;
-      reaction[3 * n + (direction === 'ux' ? 0 : direction === 'uy' ? 1 : 2)] = fint[d.dof] - this.fext[d.dof];
+      for (let d = 0; d < p.dofCount[n]; d++) {
+        displacement[3 * n + d] = this.u[p.dofStart[n] + d];
+        reaction[3 * n + d] = R[p.dofStart[n] + d];
+      }
     }
     // After commit the converged state sits in stateOld.
     const state = this.frames.length === 0 && increment === 0 ? this.state : this.stateOld;
