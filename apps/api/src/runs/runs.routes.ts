@@ -4,7 +4,7 @@ import { RUN_STATES, type RunState } from '@phaseloop/shared';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { idParams, projectParams, uuid } from '../http/common-schemas';
-import { requireProject } from '../projects/projects.service';
+import { requireProject, visibleProjectIds } from '../projects/projects.service';
 import { Run } from './runs.model';
 import { cancelRun, listStudyRuns, requestReview, requireRun, rerun, reviewRun, submitRun, toRunDto } from './runs.service';
 import { listArtifacts, listFrames, listIterations, streamArtifact } from './results.service';
@@ -119,11 +119,9 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
         workers: z.array(z.object({ id: z.string(), hostname: z.string(), pid: z.number(), lastSeenAt: z.string(), currentRunId: z.string().nullable() })),
       }),
       handler: async ({ user }) => {
-        const active = await Run.findAll({ where: { state: ['queued', 'running'] }, order: [['queuedAt', 'ASC']] });
-        const visible: Run[] = [];
-        for (const r of active) {
-          if (user.isAdmin || (await requireRun(user, r.id).then(() => true, () => false))) visible.push(r);
-        }
+        const ids = await visibleProjectIds(user);
+        const where = ids === 'all' ? { state: ['queued', 'running'] } : { state: ['queued', 'running'], projectId: ids };
+        const visible = await Run.findAll({ where, order: [['queuedAt', 'ASC']] });
         const workers = await ctx.sequelize.query<{ id: string; hostname: string; pid: number; lastSeenAt: Date; currentRunId: string | null }>(
           `SELECT id, hostname, pid, last_seen_at AS "lastSeenAt", current_run_id AS "currentRunId"
              FROM workers WHERE last_seen_at > now() - interval '2 minutes' ORDER BY id`,
