@@ -42,7 +42,7 @@ write('cantilever-beam.json', {
 });
 
 // Quarter of a plate with a hole, J2 plasticity, loaded past first yield at the hole and unloaded.
-const plate = quarterPlateWithHole({ radius: 5, halfWidth: 50, halfHeight: 50, nAround: 8, nRadial: 12, ratio: 8 }, { type: 'q8', section: 'sheet', material: 'steel' });
+const plate = quarterPlateWithHole({ radius: 5, halfWidth: 50, halfHeight: 50, nAround: 6, nRadial: 8, ratio: 8 }, { type: 'q8', section: 'sheet', material: 'steel' });
 write('plate-with-hole.json', {
   format: 'phaseloop-model/1',
   title: 'Quarter plate with a hole in tension, elastic–plastic (J2), load and unload',
