@@ -124,44 +124,78 @@ export class TestModel<P> {
     return { fint, K };
   }
 
-  /** One load/displacement increment by Newton's method; commit() afterwards to accept it. */
+  /**
+   * One load/displacement increment by Newton's method with a residual backtracking line
+   * search (halving, at most 5 times); commit() afterwards to accept it.
+   */
   solve(options: SolveOptions): SolveResult {
     const n = this.ndof;
     if (options.temperature) this.temperature.set(options.temperature);
+    // Predictor: the first iteration linearises at the converged state and carries the
+    // prescribed-displacement increments through K_fp Δu_p (instead of jumping the boundary
+    // nodes alone, which would squeeze the whole increment into the boundary elements).
     this.u.set(this.uOld);
-    for (const [d, v] of options.fixed) this.u[d] = v;
+    const prescribed: [number, number][] = [];
+    let jump = false;
+    for (const [d, v] of options.fixed) {
+      prescribed.push([d, v - this.uOld[d]]);
+      if (v !== this.uOld[d]) jump = true;
+    }
     const free: number[] = [];
     for (let d = 0; d < n; d++) if (!options.fixed.has(d)) free.push(d);
     const loads = options.loads ?? new Float64Array(n);
-    const residuals: number[] = [];
+    const tolerance = options.tolerance ?? 1e-10;
     const nf = free.length;
     const Kff = new Float64Array(nf * nf);
     const r = new Float64Array(nf);
+    const base = new Float64Array(nf);
     const piv = new Int32Array(nf);
+    const residuals: number[] = [];
     const maxIt = options.maxIterations ?? 25;
-    for (let it = 0; it < maxIt; it++) {
+
+    /** Assembles at the current u; fills r (free residual) and returns its norm and scale. */
+    const evaluate = (predictor: boolean): { norm: number; scale: number; K: Float64Array } => {
       const { fint, K } = this.assemble();
-      let norm = 0, scale = 0;
+      let norm = 0;
       for (let i = 0; i < nf; i++) {
         r[i] = loads[free[i]] - fint[free[i]];
+        if (predictor) for (const [d, du] of prescribed) r[i] -= K[free[i] * n + d] * du;
         norm += r[i] * r[i];
       }
       // Force scale: nodal forces, or stiffness × displacement when they all vanish (free
       // thermal expansion is stress-free, its residual is pure round-off).
-      let uMax = 0, kMax = 0;
+      let scale = 0, uMax = 0, kMax = 0;
       for (let d = 0; d < n; d++) {
         scale = Math.max(scale, Math.abs(fint[d]), Math.abs(loads[d]));
         uMax = Math.max(uMax, Math.abs(this.u[d]));
         kMax = Math.max(kMax, Math.abs(K[d * n + d]));
       }
-      scale = Math.max(scale, kMax * uMax);
-      norm = Math.sqrt(norm);
-      residuals.push(norm);
-      if (norm <= (options.tolerance ?? 1e-10) * Math.max(scale, 1e-30) || nf === 0) return { iterations: it, residuals, converged: true };
+      return { norm: Math.sqrt(norm), scale: Math.max(scale, kMax * uMax, 1e-30), K };
+    };
+
+    let current = evaluate(jump);
+    residuals.push(current.norm);
+    for (let it = 0; it < maxIt; it++) {
+      const predictor = it === 0 && jump;
+      if (!predictor && (current.norm <= tolerance * current.scale || nf === 0)) return { iterations: it, residuals, converged: true };
+      const K = current.K;
       for (let i = 0; i < nf; i++) for (let j = 0; j < nf; j++) Kff[i * nf + j] = K[free[i] * n + free[j]];
       if (!luFactor(nf, Kff, piv)) throw new Error('singular stiffness in test model');
       luSolve(nf, Kff, piv, r);
-      for (let i = 0; i < nf; i++) this.u[free[i]] += r[i];
+      for (let i = 0; i < nf; i++) base[i] = this.u[free[i]];
+      if (predictor) for (const [d, v] of options.fixed) this.u[d] = v;
+      const du = Float64Array.from(r);
+      let step = 1;
+      for (;;) {
+        for (let i = 0; i < nf; i++) this.u[free[i]] = base[i] + step * du[i];
+        const trial = evaluate(false);
+        if (predictor || trial.norm <= current.norm || step < 1 / 32) {
+          current = trial;
+          break;
+        }
+        step /= 2;
+      }
+      residuals.push(current.norm);
     }
     return { iterations: maxIt, residuals, converged: false };
   }
