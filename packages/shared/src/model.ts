@@ -225,20 +225,20 @@ export const solverOptionsSchema = z.object({
 });
 
 export const modelSchema = z.object({
-  format: z.literal(MODEL_FORMAT),
-  title: z.string().default(''),
+  format: z.literal(MODEL_FORMAT).describe('Format tag and version of this document.'),
+  title: z.string().default('').describe('Free text shown in results and reports.'),
   units: unitsSchema.optional(),
-  nodes: z.array(nodeSchema).min(1, { error: 'a model needs nodes' }),
-  elements: z.array(elementSchema).min(1, { error: 'a model needs elements' }),
-  sections: z.record(z.string(), sectionSchema),
-  materials: z.record(z.string(), materialParamsSchema),
-  nodeSets: z.record(z.string(), z.array(id)).default({}),
-  edgeSets: z.record(z.string(), z.array(edgeRefSchema)).default({}),
-  supports: z.array(supportSchema).default([]),
-  loads: z.array(loadSchema).default([]),
+  nodes: z.array(nodeSchema).min(1, { error: 'a model needs nodes' }).describe('Nodes: id and coordinates (mm); axisymmetric models use x = r ≥ 0, y = z.'),
+  elements: z.array(elementSchema).min(1, { error: 'a model needs elements' }).describe('Elements: id, type, node ids, section name and material name.'),
+  sections: z.record(z.string(), sectionSchema).describe('Sections by name: continuum (analysis, thickness), bar (area) or beam (cross-section, fibres).'),
+  materials: z.record(z.string(), materialParamsSchema).describe('Material parameter sets by name (MPa, °C).'),
+  nodeSets: z.record(z.string(), z.array(id)).default({}).describe('Named lists of node ids.'),
+  edgeSets: z.record(z.string(), z.array(edgeRefSchema)).default({}).describe('Named lists of element edges (element id, local edge 1…4).'),
+  supports: z.array(supportSchema).default([]).describe('Directions held at zero for the whole analysis (fixed, symmetry).'),
+  loads: z.array(loadSchema).default([]).describe('Named loads whose magnitudes the segments ramp: prescribed displacement/rotation, nodal force, edge pressure, edge traction.'),
   /** Temperature at the start of the first segment. */
-  initialTemperature: temperatureFieldSchema.default(20),
-  segments: z.array(segmentSchema).min(1, { error: 'a model needs at least one segment' }),
+  initialTemperature: temperatureFieldSchema.default(20).describe('Temperature (°C) at the start of the first segment.'),
+  segments: z.array(segmentSchema).min(1, { error: 'a model needs at least one segment' }).describe('The load–temperature history, solved in order.'),
   output: outputSchema.default({ fields: ['displacement', 'reaction', 'stress', 'vonMises'], points: [], reactionSums: [], integrationPoints: false }),
   solver: solverOptionsSchema.default({ forceTolerance: 1e-6, displacementTolerance: 1e-6, lineSearch: false }),
 });
