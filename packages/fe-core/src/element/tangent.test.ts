@@ -9,11 +9,35 @@ import { createJ2Plastic } from '../material/j2';
 import { createMaterialReport, type Material } from '../material/types';
 import { elementKernels } from './index';
 import { TestModel, elementTangentError } from './testing';
-import type { ContinuumAnalysis, ElementName, Section } from './types';
+import { createElementOutput, type ContinuumAnalysis, type ElementName, type Section } from './types';
 
 const elastic = createLinearElastic({ model: 'linear-elastic', E: 200_000, nu: 0.3, alpha: 1e-5, T_ref: 20 });
 const j2 = createJ2Plastic({ model: 'j2-plastic', E: 200_000, nu: 0.3, alpha: 1e-5, T_ref: 20, sigma_y: 250, H_iso: 5000, H_kin: 3000 });
-const materials: [string, Material<unknown>][] = [['elastic', elastic as Material<unknown>], ['J2', j2 as Material<unknown>]];
+/**
+ * Test-only nonlinear elastic material with a NON-SYMMETRIC tangent, like the SMA models:
+ * σ = C:ε + (β + γ (a·ε)) (a·ε) b, so dσ/dε = C + (β + 2γ (a·ε)) b ⊗ a with a ≠ b.
+ */
+function skewMaterial(): Material<unknown> {
+  const base = createLinearElastic({ model: 'linear-elastic', E: 200_000, nu: 0.3, alpha: 0, T_ref: 20 });
+  const a = [1, 0.5, 0.2, 0.1, 0, 0.3], b = [0.2, 1, 0.1, 0, 0.2, 0.4];
+  const beta = 20_000, gamma = 4e6;
+  return {
+    model: 'skew-test', stateSize: 0, params: {},
+    initState() {},
+    update(input, so, oo, st, no, out) {
+      base.update(input, so, oo, st, no, out);
+      let ae = 0;
+      for (let i = 0; i < 6; i++) ae += a[i] * input.strain[i];
+      for (let i = 0; i < 6; i++) {
+        out.stress[i] += (beta + gamma * ae) * ae * b[i];
+        for (let j = 0; j < 6; j++) out.tangent[i * 6 + j] += (beta + 2 * gamma * ae) * b[i] * a[j];
+      }
+    },
+    report: base.report,
+  };
+}
+
+const materials: [string, Material<unknown>][] = [['elastic', elastic as Material<unknown>], ['J2', j2 as Material<unknown>], ['non-symmetric', skewMaterial()]];
 
 /** One distorted element of each type (corners of a skewed quad, mid-edge nodes bowed slightly). */
 const geometry: Record<string, number[]> = {
@@ -39,6 +63,26 @@ function continuumCase(name: ElementName, analysis: ContinuumAnalysis, material:
   return { error, plastic: anyPlastic(model) };
 }
 
+/** Relative skew part of the element tangent, to show the non-symmetric case is really tested. */
+function asymmetry(name: ElementName, analysis: ContinuumAnalysis): number {
+  const kernel = elementKernels[name];
+  const coords = geometryOf(name).map((v, i) => (analysis === 'axisymmetric' && i % 2 === 0 ? v + 1 : v));
+  const nodes = coords.length / 2;
+  const model = new TestModel({ kernel, section: { kind: 'continuum', analysis, thickness: 2 }, material: skewMaterial(), coords, elements: [Array.from({ length: nodes }, (_, i) => i)] });
+  model.u.set(pattern(model.ndof, 4e-3));
+  const out = createElementOutput(kernel, model.input.section);
+  kernel.evaluate(model.context(0), out);
+  const nd = model.ndof;
+  let skew = 0, size = 0;
+  for (let i = 0; i < nd; i++) {
+    for (let j = 0; j < nd; j++) {
+      skew = Math.max(skew, Math.abs(out.K[i * nd + j] - out.K[j * nd + i]));
+      size = Math.max(size, Math.abs(out.K[i * nd + j]));
+    }
+  }
+  return skew / size;
+}
+
 function anyPlastic(model: TestModel<unknown>): boolean {
   const report = createMaterialReport();
   const ms = model.reduced.stateSize;
@@ -60,6 +104,7 @@ describe('continuum element tangents vs finite differences', () => {
           const { error, plastic } = continuumCase(name, analysis, material);
           expect(error).toBeLessThan(label === 'elastic' ? 1e-7 : 1e-5);
           if (label === 'J2') expect(plastic).toBe(true);
+          if (label === 'non-symmetric') expect(asymmetry(name, analysis)).toBeGreaterThan(1e-3);
         });
       }
     }
