@@ -50,6 +50,14 @@ function pwSlope(x: number, n: number): number {
 
 type Direction = 'forward' | 'reverse';
 
+// Plain loops: typed-array set()/fill() calls cost more than six element moves.
+function copy6(from: Float64Array, to: Float64Array): void {
+  for (let i = 0; i < 6; i++) to[i] = from[i];
+}
+function zero6(a: Float64Array): void {
+  for (let i = 0; i < 6; i++) a[i] = 0;
+}
+
 export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   readonly model = 'lagoudas2012';
   readonly stateSize = LAGOUDAS2012_STATE_SIZE;
@@ -189,7 +197,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
    * Forward: stress for a given ξ ≥ ξ_base, Φ_fwd there and dΦ/dξ along the solution.
    * Returns Φ; leaves σ, Λ, n̂, s, a, b, N, ∂Φ/∂σ and the denominator in the work buffers.
    */
-  private evalForward(xi: number): number {
+  private evalForward(xi: number, derivatives = true): number {
     const p = this.params;
     const dxi = xi - this.xiB;
     const s = this.compliance(xi);
@@ -206,7 +214,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     }
     const enorm = Math.sqrt(nn);
     if (enorm > 0) for (let i = 0; i < 6; i++) this.nhat[i] /= enorm;
-    else this.nhat.fill(0);
+    else zero6(this.nhat);
     const c = s * (1 + p.nu);
     const target = SQ32 * enorm;
     const r2 = p.sigmaReg * p.sigmaReg;
@@ -259,6 +267,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       (1 - p.D) * H * sbar * g + 0.5 * p.dS * this.sPs() + p.dAlpha * dT * trs +
       p.rhoDs0 * this.temp - p.rhoDu0 - this.fFwd(xi) - p.Y0;
     // ∂Φ/∂σ
+    if (!derivatives) return phi;
     const dPhiBar = (1 - p.D) * (Hp * sbar * g + H * g + H * sbar * gp) * SQ32;
     for (let i = 0; i < 6; i++) this.phiS[i] = dPhiBar * this.nhat[i] + p.dS * (1 + p.nu) * this.sig[i];
     for (let i = 0; i < 3; i++) this.phiS[i] += -p.dS * p.nu * trs + p.dAlpha * dT;
@@ -271,14 +280,14 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   }
 
   /** Reverse: σ explicit for a given ξ ≤ ξ_base (direction Λ_r = εᵗʳ/ξʳ frozen). */
-  private evalReverse(xi: number): number {
+  private evalReverse(xi: number, derivatives = true): number {
     const p = this.params;
     const dxi = xi - this.xiB;
     const s = this.compliance(xi);
     this.sC = s;
     this.aC = s * (1 + p.nu);
     this.bC = this.aC;
-    this.nhat.fill(0);
+    for (let i = 0; i < 6; i++) this.nhat[i] = 0;
     this.knownStrain(xi);
     for (let i = 0; i < 6; i++) this.estar[i] -= dxi * this.lamR[i];
     this.applyXi(this.estar, this.sig);
@@ -289,6 +298,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     const phi =
       -(1 + p.D) * sl - 0.5 * p.dS * this.sPs() - p.dAlpha * dT * trs -
       p.rhoDs0 * this.temp + p.rhoDu0 + this.fRev(xi) - p.Y0;
+    if (!derivatives) return phi;
     for (let i = 0; i < 6; i++) this.phiS[i] = -(1 + p.D) * this.lamR[i] - p.dS * (1 + p.nu) * this.sig[i];
     for (let i = 0; i < 3; i++) this.phiS[i] += p.dS * p.nu * trs - p.dAlpha * dT;
     this.buildN(this.lamR);
@@ -352,12 +362,15 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     this.xirB = state[offset + XIR];
   }
 
-  /** Trial values of Φ_fwd and Φ_rev with the base internal state frozen (−∞ where not allowed). */
+  /**
+   * Trial values of Φ_fwd and Φ_rev with the base internal state frozen (−∞ where not allowed).
+   * Both evaluations are at Δξ = 0, so either leaves the elastic trial stress in the buffers.
+   */
   private trialPhis(out: { fwd: number; rev: number }): void {
-    out.fwd = this.xiB < 1 ? this.evalForward(this.xiB) : -Infinity;
+    out.fwd = this.xiB < 1 ? this.evalForward(this.xiB, false) : -Infinity;
     if (this.xiB > 0) {
       this.setReverseDirection();
-      out.rev = this.evalReverse(this.xiB);
+      out.rev = this.evalReverse(this.xiB, false);
     } else out.rev = -Infinity;
   }
 
@@ -383,7 +396,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   ): void {
     this.failure = '';
     this.loadBase(stateOld, oldOffset);
-    this.eps.set(input.strain);
+    for (let i = 0; i < 6; i++) this.eps[i] = input.strain[i];
     this.temp = input.temperature;
     const tol = this.tolPhi;
     this.trialPhis(this.trial);
@@ -394,10 +407,10 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       if (this.trial.fwd > tol && this.trial.rev > tol) {
         // Both positive after a large or reversing increment: follow the one that grew more
         // since the converged state (pitfall 2), then let the other one correct if needed.
-        this.eps.set(input.strainOld);
+        copy6(input.strainOld, this.eps);
         this.temp = input.temperatureOld;
         this.trialPhis(this.trialOld);
-        this.eps.set(input.strain);
+        copy6(input.strain, this.eps);
         this.temp = input.temperature;
         first = this.trial.fwd - this.trialOld.fwd >= this.trial.rev - this.trialOld.rev ? 'forward' : 'reverse';
       } else first = this.trial.fwd > tol ? 'forward' : 'reverse';
@@ -409,8 +422,8 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
         let phi2: number;
         if (second === 'reverse') {
           this.setReverseDirection();
-          phi2 = this.evalReverse(this.xiB);
-        } else phi2 = this.evalForward(this.xiB);
+          phi2 = this.evalReverse(this.xiB, false);
+        } else phi2 = this.evalForward(this.xiB, false);
         if (phi2 > tol) {
           transforming = this.runPhase(second);
           mode = second;
@@ -418,11 +431,10 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       }
       // re-evaluate at the end state of the last phase for stress and tangent
       this.reevaluateEnd(mode);
-    } else {
-      this.evalReverseElastic();
     }
+    // elastic: the trial evaluation (Δξ = 0) already holds stress and the elastic Ξ
     this.writeState(state, newOffset);
-    out.stress.set(this.sig);
+    for (let i = 0; i < 6; i++) out.stress[i] = this.sig[i];
     this.writeTangent(out.tangent, mode !== 'elastic' && transforming);
     let finite = true;
     for (let i = 0; i < 6; i++) finite = finite && Number.isFinite(this.sig[i]);
@@ -445,12 +457,6 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     this.commitPhaseEnd(xi, mode);
   }
 
-  private evalReverseElastic(): void {
-    // trialPhis evaluated forward last when xiB < 1 only; recompute the elastic stress uniformly.
-    this.setReverseDirection();
-    this.evalReverse(this.xiB);
-  }
-
   // Phase-start snapshot so the end state can be re-evaluated with the right Δξ.
   private readonly psEt = new Float64Array(6);
   private readonly psEtr = new Float64Array(6);
@@ -458,15 +464,15 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private psXir = 0;
 
   private snapshotPhaseStart(): void {
-    this.psEt.set(this.etB);
-    this.psEtr.set(this.etrB);
+    copy6(this.etB, this.psEt);
+    copy6(this.etrB, this.psEtr);
     this.psXi = this.xiB;
     this.psXir = this.xirB;
   }
 
   private restorePhaseStart(): void {
-    this.etB.set(this.psEt);
-    this.etrB.set(this.psEtr);
+    copy6(this.psEt, this.etB);
+    copy6(this.psEtr, this.etrB);
     this.xiB = this.psXi;
     this.xirB = this.psXir;
   }
@@ -477,12 +483,12 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     for (let i = 0; i < 6; i++) this.etB[i] += dxi * lam[i];
     this.xiB = xi;
     if (dir === 'forward') {
-      this.etrB.set(this.etB);
+      copy6(this.etB, this.etrB);
       this.xirB = xi;
     } else if (xi <= 0) {
       this.xiB = 0;
-      this.etB.fill(0);
-      this.etrB.fill(0);
+      zero6(this.etB);
+      zero6(this.etrB);
       this.xirB = 0;
     }
   }

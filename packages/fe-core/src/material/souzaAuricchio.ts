@@ -90,7 +90,14 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
   private lambda = 0;
   private failure = '';
 
-  constructor(readonly params: SouzaAuricchioConstants) {}
+  /** Elastic stiffness K 1⊗1 + 2G I_dev, formed once. */
+  private readonly elastic = new Float64Array(36);
+
+  constructor(readonly params: SouzaAuricchioConstants) {
+    for (let i = 0; i < 6; i++) {
+      for (let j = 0; j < 6; j++) this.elastic[i * 6 + j] = (i < 3 && j < 3 ? params.K : 0) + 2 * params.G * idev(i, j);
+    }
+  }
 
   initState(state: Float64Array, offset: number): void {
     for (let i = 0; i < SOUZA_STATE_SIZE; i++) state[offset + i] = 0;
@@ -191,64 +198,71 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
     this.failure = '';
     const eps = input.strain;
     const T = input.temperature;
+    const G2 = 2 * p.G;
+    const e = this.e;
+    const etrN = this.etrN;
+    const sTr = this.sTr;
     this.tau = p.beta * Math.max(T - p.T0, 0);
     const tr = eps[0] + eps[1] + eps[2];
     const m = tr / 3;
     let qn2 = 0;
+    let ss = 0;
+    let sn = 0;
     for (let i = 0; i < 6; i++) {
-      this.e[i] = i < 3 ? eps[i] - m : eps[i];
+      const ei = i < 3 ? eps[i] - m : eps[i];
       const x = stateOld[oldOffset + i];
-      this.etrN[i] = x;
+      const si = G2 * (ei - x);
+      e[i] = ei;
+      etrN[i] = x;
+      sTr[i] = si;
       qn2 += x * x;
-      this.sTr[i] = 2 * p.G * (this.e[i] - x);
+      ss += si * si;
+      sn += si * x;
     }
-    const qn = Math.sqrt(qn2);
-    const transforms = this.isTransforming(qn);
-    if (transforms) this.solveIncrement();
-    else {
-      this.etr.set(this.etrN);
+    const transforms = this.isTransforming(Math.sqrt(qn2), ss, sn);
+    let etr = this.etr;
+    if (transforms) {
+      this.solveIncrement();
+      if (this.qReg === 'elastic') for (let i = 0; i < 6; i++) etr[i] = 0; // complete reverse
+    } else {
+      etr = etrN; // unchanged
       this.qReg = 'elastic';
     }
-    if (this.qReg === 'elastic' && transforms) this.etr.fill(0); // complete reverse
     const pr = p.K * (tr - 3 * p.alpha * (T - p.T_ref));
+    const stress = out.stress;
+    let check = 0;
     for (let i = 0; i < 6; i++) {
-      out.stress[i] = 2 * p.G * (this.e[i] - this.etr[i]) + (i < 3 ? pr : 0);
-      state[newOffset + i] = this.etr[i];
+      const si = G2 * (e[i] - etr[i]) + (i < 3 ? pr : 0);
+      stress[i] = si;
+      check += si;
+      state[newOffset + i] = etr[i];
     }
     this.writeTangent(out.tangent);
-    let finite = true;
-    for (let i = 0; i < 6; i++) finite = finite && Number.isFinite(out.stress[i]);
-    out.ok = finite && this.failure === '';
+    out.ok = check - check === 0 && this.failure === ''; // check − check is NaN for ±∞ or NaN
     out.message = out.ok ? '' : this.failure || 'non-finite stress in the Souza–Auricchio update';
   }
 
-  /** Elastic test with the trial driving force (exact cases, γ ≥ 0 chosen at saturation). */
-  private isTransforming(qn: number): boolean {
+  /**
+   * Elastic test with the trial driving force (exact cases, γ ≥ 0 chosen at saturation), from
+   * ‖eᵗʳ_n‖, ‖s_trial‖² and s_trial·eᵗʳ_n.
+   */
+  private isTransforming(qn: number, ss: number, sDotE: number): boolean {
     const p = this.params;
     const tolR = 1e-12 * p.R;
-    let ss = 0;
-    if (qn <= 1e-14 * p.eps_L) {
-      for (let i = 0; i < 6; i++) ss += this.sTr[i] * this.sTr[i];
-      return Math.sqrt(ss) > p.R + this.tau + tolR;
-    }
+    if (qn <= 1e-14 * p.eps_L) return Math.sqrt(ss) > p.R + this.tau + tolR;
+    // Y = s_trial − k0 n_n: ‖Y‖² = ‖s‖² − 2 k0 (s·n_n) + k0², c = Y·n_n = s·n_n − k0
     const k0 = this.tau + p.h * qn;
-    let c = 0;
-    for (let i = 0; i < 6; i++) {
-      const y = this.sTr[i] - (k0 * this.etrN[i]) / qn;
-      ss += y * y;
-      c += (y * this.etrN[i]) / qn;
-    }
+    const sN = sDotE / qn;
+    const yy = Math.max(ss - 2 * k0 * sN + k0 * k0, 0);
+    const c = sN - k0;
     // At saturation γ = max(c, 0) removes the component along eᵗʳ.
     const saturated = qn >= p.eps_L * (1 - 1e-12);
-    const xx = saturated && c > 0 ? Math.max(ss - c * c, 0) : ss;
+    const xx = saturated && c > 0 ? Math.max(yy - c * c, 0) : yy;
     return Math.sqrt(xx) > p.R + tolR;
   }
 
   private writeTangent(t: Float64Array): void {
-    const p = this.params;
-    for (let i = 0; i < 6; i++) {
-      for (let j = 0; j < 6; j++) t[i * 6 + j] = (i < 3 && j < 3 ? p.K : 0) + 2 * p.G * idev(i, j);
-    }
+    t.set(this.elastic);
     if (this.qReg === 'elastic') return;
     this.transformationTangent(t);
   }
