@@ -152,3 +152,4 @@ describe('elastic–perfectly plastic fibre beam: moment–curvature', () => {
     expect(e16).toBeLessThan(5e-3);
   });
 });
+

@@ -7,18 +7,20 @@
  * Gauss point the fibre strain is ε = ε0 − y κ and each fibre is a material point with the
  * uniaxial-stress reduction of the material, so any Material (elastic, J2, SMA) gives a nonlinear
  * beam. With κ > 0 for counter-clockwise bending, M = −∫σ y dA = EIκ in the elastic case.
- * Three Gauss points along the axis (exact for the elastic stiffness, which needs two).
+ * Three Gauss–Lobatto points along the axis (x = 0, L/2, L; exact for the elastic stiffness,
+ * whose integrand is quadratic): the end sections, where frame moments peak and plastic hinges
+ * form, are sampled directly.
  * Point results are in the element's local axes (1 = beam axis).
  */
 import { createMaterialPointOutput } from '../material/types';
 import type { ReducedMaterial } from '../material/reduce';
-import { gaussLine } from '../quadrature/gauss';
+import { gaussLobattoLine } from '../quadrature/gauss';
 import { asBeam, fibreLayout, type FibreLayout } from './beamSection';
 import { PointCall } from './continuum';
 import type { BeamSection, ElementKernel, ElementName } from './types';
 
 export const AXIAL_POINTS = 3;
-const line = gaussLine(AXIAL_POINTS);
+const line = gaussLobattoLine(AXIAL_POINTS);
 
 export interface BeamInterpolation {
   readonly name: ElementName;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { gaussLine, gaussQuad, gaussTriangle } from './gauss';
+import { gaussLine, gaussLobattoLine, gaussQuad, gaussTriangle } from './gauss';
 
 // Closed forms: ∫_{−1}^{1} x^k dx = (1 + (−1)^k)/(k + 1); over the unit triangle
 // ∫ ξ^i η^j dA = i! j! / (i + j + 2)! (Dirichlet/beta integral).
@@ -23,6 +23,23 @@ describe('Gauss–Legendre line rules', () => {
   it('rejects unavailable orders', () => {
     expect(() => gaussLine(6)).toThrow(/not available/);
   });
+});
+
+describe('Gauss–Lobatto line rules', () => {
+  for (let n = 2; n <= 5; n++) {
+    it(`${n} points include ±1 and integrate x^k exactly up to k = ${2 * n - 3} and not beyond`, () => {
+      const r = gaussLobattoLine(n);
+      expect(r.points[0]).toBe(-1);
+      expect(r.points[n - 1]).toBe(1);
+      const integrate = (k: number): number => {
+        let s = 0;
+        for (let q = 0; q < n; q++) s += r.weights[q] * r.points[q] ** k;
+        return s;
+      };
+      for (let k = 0; k <= 2 * n - 3; k++) expect(integrate(k)).toBeCloseTo(lineMoment(k), 14);
+      expect(Math.abs(integrate(2 * n - 2) - lineMoment(2 * n - 2))).toBeGreaterThan(1e-6);
+    });
+  }
 });
 
 describe('tensor quad rules', () => {

@@ -63,6 +63,28 @@ export function gaussLine(n: number): QuadratureRule {
   return LINE_RULES[n - 1];
 }
 
+/**
+ * n-point Gauss–Lobatto rule on [−1, 1] (end points included, exact to degree 2n − 3), n = 2..5.
+ * Closed forms: interior points are the roots of P'_{n−1}, weights 2/(n(n−1) P_{n−1}(x)²).
+ */
+export function gaussLobattoLine(n: number): QuadratureRule {
+  const rule = LOBATTO_RULES[n];
+  if (!rule) throw new Error(`Gauss–Lobatto rule with ${n} points is not available (2..5)`);
+  return rule;
+}
+
+function lobatto(points: number[], weights: number[]): QuadratureRule {
+  const n = points.length;
+  return { dim: 1, points: Float64Array.from(points), weights: Float64Array.from(weights), count: n, degree: 2 * n - 3 };
+}
+
+const LOBATTO_RULES: Record<number, QuadratureRule> = {
+  2: lobatto([-1, 1], [1, 1]),
+  3: lobatto([-1, 0, 1], [1 / 3, 4 / 3, 1 / 3]),
+  4: lobatto([-1, -1 / Math.sqrt(5), 1 / Math.sqrt(5), 1], [1 / 6, 5 / 6, 5 / 6, 1 / 6]),
+  5: lobatto([-1, -Math.sqrt(3 / 7), 0, Math.sqrt(3 / 7), 1], [1 / 10, 49 / 90, 32 / 45, 49 / 90, 1 / 10]),
+};
+
 /** Tensor-product n×n Gauss rule on [−1, 1]², ordered η-major (ξ runs fastest). */
 export function gaussQuad(n: number): QuadratureRule {
   const line = gaussLine(n);
