@@ -28,10 +28,11 @@ export default defineConfig({
       output: {
         codeSplitting: {
           groups: [
+            // Highest priority: otherwise a library group takes the Vue runtime in as its dependency.
+            { name: 'vue', test: /node_modules[\\/](vue|@vue|vue-router|pinia)[\\/]/, priority: 40 },
             { name: 'three', test: /node_modules[\\/]three[\\/]/, priority: 30 },
             { name: 'echarts', test: /node_modules[\\/](echarts|zrender|vue-echarts)[\\/]/, priority: 30 },
             { name: 'element-plus', test: /node_modules[\\/](element-plus|@element-plus|@floating-ui|@popperjs|async-validator|dayjs|lodash-es|lodash-unified|@vueuse|normalize-wheel-es|memoize-one)[\\/]/, priority: 20 },
-            { name: 'vue', test: /node_modules[\\/](vue|@vue|vue-router|pinia)[\\/]/, priority: 10 },
           ],
         },
       },

@@ -1,6 +1,6 @@
 import { createApp } from 'vue';
 import { createPinia } from 'pinia';
-import ElementPlus from 'element-plus';
+// Element Plus components are imported where they are used (tree-shaken); its styles once, here.
 import 'element-plus/dist/index.css';
 
 // Roboto from the bundled @fontsource files (never a CDN): light for units, regular, medium, bold.
@@ -23,7 +23,6 @@ import { useAuthStore } from './stores/auth';
 const app = createApp(App);
 app.use(createPinia());
 app.use(router);
-app.use(ElementPlus);
 
 // A request that finds the session gone sends the user to sign in, and back here afterwards.
 setSessionLostHandler(() => {
