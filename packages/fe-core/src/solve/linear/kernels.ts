@@ -126,12 +126,19 @@ export function syrkLower(
   ldc: number,
 ): void {
   const stride = 4 * kc;
-  for (let j = 0; j < n; j += 4) {
-    const bo = (j >> 2) * stride;
-    const cj = co + j * ldc;
-    for (let i = j; i < n; i += 4) kernel4x4(Ap, (i >> 2) * stride, Bp, bo, kc, C, cj + i, ldc);
+  // Rows in blocks of ROWS_L2 so the A panels in use stay in L2 while every B panel passes.
+  for (let i0 = 0; i0 < n; i0 += ROWS_L2) {
+    const i1 = Math.min(i0 + ROWS_L2, n);
+    for (let j = 0; j < i1; j += 4) {
+      const bo = (j >> 2) * stride;
+      const cj = co + j * ldc;
+      for (let i = j > i0 ? j : i0; i < i1; i += 4) kernel4x4(Ap, (i >> 2) * stride, Bp, bo, kc, C, cj + i, ldc);
+    }
   }
 }
+
+/** Rows of packed A kept hot per pass (≈ ROWS_L2·kc·8 bytes ≤ L2). */
+const ROWS_L2 = 256;
 
 /** C (nr×nc at co) −= A·B with A packed by packRows (nr rows) and B by packCols (nc columns). */
 export function gemmPacked(
@@ -145,10 +152,13 @@ export function gemmPacked(
   ldc: number,
 ): void {
   const stride = 4 * kc;
-  for (let j = 0; j < nc; j += 4) {
-    const bo = (j >> 2) * stride;
-    const cj = co + j * ldc;
-    for (let i = 0; i < nr; i += 4) kernel4x4(Ap, (i >> 2) * stride, Bp, bo, kc, C, cj + i, ldc);
+  for (let i0 = 0; i0 < nr; i0 += ROWS_L2) {
+    const i1 = Math.min(i0 + ROWS_L2, nr);
+    for (let j = 0; j < nc; j += 4) {
+      const bo = (j >> 2) * stride;
+      const cj = co + j * ldc;
+      for (let i = i0; i < i1; i += 4) kernel4x4(Ap, (i >> 2) * stride, Bp, bo, kc, C, cj + i, ldc);
+    }
   }
 }
 
@@ -156,7 +166,13 @@ export function gemmPacked(
 export class PackBuffers {
   a = new Float64Array(0);
   b = new Float64Array(0);
-  d = new Float64Array(PANEL);
+  private d = new Float64Array(64);
+
+  /** Scratch for D of a column block. */
+  diag(kc: number): Float64Array {
+    if (this.d.length < kc) this.d = new Float64Array(kc);
+    return this.d;
+  }
 
   ensure(rows: number, kc: number): void {
     const need = (((rows + 3) >> 2) << 2) * kc;
@@ -172,6 +188,10 @@ export class PackBuffers {
  * column-major, leading dimension ld). Afterwards F[j,j] = d_j and F[i,j] = l_ij for j < k, and
  * F[k:m, k:m] holds the Schur complement (the update matrix). Returns the local index of the first
  * pivot with |d_j| ≤ floor[j] (or not finite), or −1.
+ *
+ * Columns are taken in blocks of up to BLOCK: each block is factored recursively (halves, the
+ * left half updating the right one through the packed 4×4 kernel) and then updates the trailing
+ * matrix in one rank-BLOCK pass, so nearly all flops run in kernel4x4.
  */
 export function ldltFront(
   F: Float64Array,
@@ -181,14 +201,14 @@ export function ldltFront(
   floor: Float64Array,
   buf: PackBuffers,
 ): number {
-  for (let p0 = 0; p0 < k; p0 += PANEL) {
-    const p1 = Math.min(p0 + PANEL, k);
-    const bad = ldltPanel(F, ld, m, p0, p1, floor);
+  for (let p0 = 0; p0 < k; p0 += BLOCK) {
+    const p1 = Math.min(p0 + BLOCK, k);
+    const bad = ldltRecursive(F, ld, m, p0, p1, floor, buf);
     if (bad >= 0) return bad;
     const nr = m - p1;
     if (nr <= 0) continue;
     const kc = p1 - p0;
-    const d = buf.d;
+    const d = buf.diag(kc);
     for (let p = 0; p < kc; p++) d[p] = F[(p0 + p) * (ld + 1)];
     buf.ensure(nr, kc);
     const off = p1 + p0 * ld;
@@ -199,22 +219,96 @@ export function ldltFront(
   return -1;
 }
 
-/** Unblocked right-looking LDLᵀ of columns p0..p1-1 (rows p0..m-1), updating only those columns. */
+/** Columns per trailing-update pass of ldltFront (the kernel's inner dimension stays ≤ BLOCK). */
+export const BLOCK = 192;
+/** Below this width a column block is factored without the packed kernel. */
+const LEAF = 8;
+
+/** LDLᵀ of columns a..b-1 (all rows below), which already carry every update from columns < a. */
+function ldltRecursive(
+  F: Float64Array,
+  ld: number,
+  m: number,
+  a: number,
+  b: number,
+  floor: Float64Array,
+  buf: PackBuffers,
+): number {
+  if (b - a <= LEAF) return ldltPanel(F, ld, m, a, b, floor);
+  const mid = a + (((b - a) >> 1) & ~3);
+  const bad = ldltRecursive(F, ld, m, a, mid, floor, buf);
+  if (bad >= 0) return bad;
+  // Columns mid..b-1, rows mid..m-1 −= L[mid:m, a:mid]·D·L[mid:b, a:mid]ᵀ.
+  const kc = mid - a;
+  const nr = m - mid;
+  const nc = b - mid;
+  const d = buf.diag(kc);
+  for (let p = 0; p < kc; p++) d[p] = F[(a + p) * (ld + 1)];
+  buf.ensure(nr, kc);
+  const off = mid + a * ld;
+  packRows(F, off, ld, nr, kc, buf.a, null);
+  packRows(F, off, ld, nc, kc, buf.b, d);
+  gemmPacked(buf.a, nr, buf.b, nc, kc, F, mid + mid * ld, ld);
+  return ldltRecursive(F, ld, m, mid, b, floor, buf);
+}
+
+/**
+ * LDLᵀ of columns p0..p1-1 (rows p0..m-1), updating only those columns: groups of four columns are
+ * factored among themselves, then applied to the rest of the panel four at a time, so each pass
+ * over a target column does four multiply-adds per load/store of it instead of one.
+ */
 function ldltPanel(F: Float64Array, ld: number, m: number, p0: number, p1: number, floor: Float64Array): number {
-  for (let j = p0; j < p1; j++) {
-    const cj = j * ld;
-    const d = F[cj + j];
-    if (!(Math.abs(d) > floor[j])) return j;
-    const inv = 1 / d;
-    for (let i = j + 1; i < m; i++) F[cj + i] *= inv;
-    for (let c = j + 1; c < p1; c++) {
-      const t = F[cj + c] * d;
-      if (t === 0) continue;
-      const cc = c * ld;
-      for (let i = c; i < m; i++) F[cc + i] -= F[cj + i] * t;
+  for (let j0 = p0; j0 < p1; j0 += 4) {
+    const j1 = Math.min(j0 + 4, p1);
+    for (let j = j0; j < j1; j++) {
+      const cj = j * ld;
+      const d = F[cj + j];
+      if (!(Math.abs(d) > floor[j])) return j;
+      const inv = 1 / d;
+      for (let i = j + 1; i < m; i++) F[cj + i] *= inv;
+      for (let c = j + 1; c < j1; c++) {
+        const t = F[cj + c] * d;
+        if (t === 0) continue;
+        const cc = c * ld;
+        for (let i = c; i < m; i++) F[cc + i] -= F[cj + i] * t;
+      }
+    }
+    if (j1 < p1) {
+      if (j1 - j0 === 4) rank4PanelUpdate(F, ld, m, j0, j1, p1);
+      else
+        for (let j = j0; j < j1; j++) {
+          const cj = j * ld;
+          const d = F[cj + j];
+          for (let c = j1; c < p1; c++) {
+            const t = F[cj + c] * d;
+            if (t === 0) continue;
+            const cc = c * ld;
+            for (let i = c; i < m; i++) F[cc + i] -= F[cj + i] * t;
+          }
+        }
     }
   }
   return -1;
+}
+
+/** Columns j1..p1-1 (rows from their diagonal down) −= L[:, j0..j0+3]·D·L[c, j0..j0+3]ᵀ. */
+function rank4PanelUpdate(F: Float64Array, ld: number, m: number, j0: number, j1: number, p1: number): void {
+  const a0 = j0 * ld;
+  const a1 = a0 + ld;
+  const a2 = a1 + ld;
+  const a3 = a2 + ld;
+  const d0 = F[a0 + j0];
+  const d1 = F[a1 + j0 + 1];
+  const d2 = F[a2 + j0 + 2];
+  const d3 = F[a3 + j0 + 3];
+  for (let c = j1; c < p1; c++) {
+    const w0 = F[a0 + c] * d0;
+    const w1 = F[a1 + c] * d1;
+    const w2 = F[a2 + c] * d2;
+    const w3 = F[a3 + c] * d3;
+    const cc = c * ld;
+    for (let i = c; i < m; i++) F[cc + i] -= F[a0 + i] * w0 + F[a1 + i] * w1 + F[a2 + i] * w2 + F[a3 + i] * w3;
+  }
 }
 
 /** Outcome of a partial LU of one front. */

@@ -356,7 +356,7 @@ export function unitLowerTransposedSolve(
   }
 }
 
-/** out[0..r) += B·y[f..f+k), B the r×k block at L[o] (leading dimension m); four columns per pass. */
+/** out[0..r) += B·y[f..f+k), B the r×k block at L[o] (leading dimension m); eight columns per pass. */
 export function gemvColumns(
   L: Float64Array,
   o: number,
@@ -368,13 +368,21 @@ export function gemvColumns(
   out: Float64Array,
 ): void {
   let j = 0;
-  for (; j + 3 < k; j += 4) {
+  for (; j + 7 < k; j += 8) {
     const y0 = y[f + j], y1 = y[f + j + 1], y2 = y[f + j + 2], y3 = y[f + j + 3];
-    const c0 = o + j * m;
-    const c1 = c0 + m;
-    const c2 = c1 + m;
-    const c3 = c2 + m;
-    for (let i = 0; i < r; i++) out[i] += L[c0 + i] * y0 + L[c1 + i] * y1 + L[c2 + i] * y2 + L[c3 + i] * y3;
+    const y4 = y[f + j + 4], y5 = y[f + j + 5], y6 = y[f + j + 6], y7 = y[f + j + 7];
+    const c0 = o + j * m, c1 = c0 + m, c2 = c1 + m, c3 = c2 + m;
+    const c4 = c3 + m, c5 = c4 + m, c6 = c5 + m, c7 = c6 + m;
+    for (let i = 0; i < r; i++) {
+      out[i] +=
+        L[c0 + i] * y0 + L[c1 + i] * y1 + L[c2 + i] * y2 + L[c3 + i] * y3 +
+        L[c4 + i] * y4 + L[c5 + i] * y5 + L[c6 + i] * y6 + L[c7 + i] * y7;
+    }
+  }
+  for (; j + 1 < k; j += 2) {
+    const y0 = y[f + j], y1 = y[f + j + 1];
+    const c0 = o + j * m, c1 = c0 + m;
+    for (let i = 0; i < r; i++) out[i] += L[c0 + i] * y0 + L[c1 + i] * y1;
   }
   for (; j < k; j++) {
     const yj = y[f + j];
@@ -383,7 +391,7 @@ export function gemvColumns(
   }
 }
 
-/** y[f+j] −= Σ_i B[i, j]·t[i] for the r×k block B at L[o]; four columns per pass. */
+/** y[f+j] −= Σ_i B[i, j]·t[i] for the r×k block B at L[o]; eight columns per pass. */
 export function gemvTransposed(
   L: Float64Array,
   o: number,
@@ -395,23 +403,40 @@ export function gemvTransposed(
   f: number,
 ): void {
   let j = 0;
-  for (; j + 3 < k; j += 4) {
-    const c0 = o + j * m;
-    const c1 = c0 + m;
-    const c2 = c1 + m;
-    const c3 = c2 + m;
-    let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+  for (; j + 7 < k; j += 8) {
+    const c0 = o + j * m, c1 = c0 + m, c2 = c1 + m, c3 = c2 + m;
+    const c4 = c3 + m, c5 = c4 + m, c6 = c5 + m, c7 = c6 + m;
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, s5 = 0, s6 = 0, s7 = 0;
     for (let i = 0; i < r; i++) {
       const ti = t[i];
       s0 += L[c0 + i] * ti;
       s1 += L[c1 + i] * ti;
       s2 += L[c2 + i] * ti;
       s3 += L[c3 + i] * ti;
+      s4 += L[c4 + i] * ti;
+      s5 += L[c5 + i] * ti;
+      s6 += L[c6 + i] * ti;
+      s7 += L[c7 + i] * ti;
     }
     y[f + j] -= s0;
     y[f + j + 1] -= s1;
     y[f + j + 2] -= s2;
     y[f + j + 3] -= s3;
+    y[f + j + 4] -= s4;
+    y[f + j + 5] -= s5;
+    y[f + j + 6] -= s6;
+    y[f + j + 7] -= s7;
+  }
+  for (; j + 1 < k; j += 2) {
+    const c0 = o + j * m, c1 = c0 + m;
+    let s0 = 0, s1 = 0;
+    for (let i = 0; i < r; i++) {
+      const ti = t[i];
+      s0 += L[c0 + i] * ti;
+      s1 += L[c1 + i] * ti;
+    }
+    y[f + j] -= s0;
+    y[f + j + 1] -= s1;
   }
   for (; j < k; j++) {
     const c = o + j * m;
