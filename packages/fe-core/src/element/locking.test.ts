@@ -19,10 +19,17 @@ const elastic = (nu: number): Material<unknown> =>
  * u = −Mxy/(E'I), v = M(x² + ν'y²)/(2E'I) (E' = E, ν' = ν in plane stress) satisfies these
  * supports, so the tip deflection at (L, 0) is ML²/(2E'I) — plane strain uses E' = E/(1 − ν²).
  */
-function endMomentDeflection(name: ElementName, analysis: ContinuumAnalysis, nu: number, nx: number, ny: number): { computed: number; target: number } {
+function endMomentDeflection(name: ElementName, analysis: ContinuumAnalysis, nu: number, nx: number, ny: number, skew = 0): { computed: number; target: number } {
   const L = 10, h = 1, M = 1000, E = 200_000;
   const I = h ** 3 / 12;
   const mesh = rectangleMesh(nx, ny, 0, L, -h / 2, h / 2);
+  // Optional distortion: interior columns lean by ±skew (top and bottom rows move oppositely).
+  for (let j = 0; j <= ny; j++) {
+    for (let i = 1; i < nx; i++) {
+      const k = j * (nx + 1) + i;
+      mesh.coords[2 * k] += skew * (i % 2 === 0 ? 1 : -1) * (2 * j / ny - 1);
+    }
+  }
   const model = new TestModel({ kernel: elementKernels[name], section: { kind: 'continuum', analysis, thickness: 1 }, material: elastic(nu), coords: mesh.coords, elements: mesh.elements });
   const fixed = new Map<number, number>();
   const loads = new Float64Array(model.ndof);
@@ -56,6 +63,18 @@ describe('shear locking in bending (end-moment cantilever, 10 × 2 elements)', (
     // Plain Q4 recovers only a fraction of it (parasitic shear strain in bending).
     expect(q4.computed / q4.target).toBeLessThan(0.8);
     expect(q4.computed / q4.target).toBeGreaterThan(0.3);
+  });
+
+  it('on a distorted mesh (columns leaning ±0.1) q4-eas stays within 10 % (8 % measured) while plain Q4 is 33 % off', () => {
+    // EAS is exact only on parallelograms; distortion costs accuracy that refinement recovers.
+    const eas = endMomentDeflection('q4-eas', 'planeStress', 0.3, 10, 2, 0.1);
+    const q4 = endMomentDeflection('q4', 'planeStress', 0.3, 10, 2, 0.1);
+    const check = recordCheck({
+      suite: 'Elements: locking', name: 'q4-eas end-moment cantilever 10×2, distorted mesh (±0.1), plane stress: tip deflection', computed: eas.computed, target: eas.target,
+      unit: 'mm', tolerance: 0.1, source: 'closed form: pure bending v = ML²/(2EI)', tag: 'closed',
+    });
+    expect(check.pass).toBe(true);
+    expect(Math.abs(q4.computed / q4.target - 1)).toBeGreaterThan(3 * Math.abs(eas.computed / eas.target - 1));
   });
 
   it('q4-eas stays exact in nearly incompressible plane strain (ν = 0.4999), plain Q4 locks badly', () => {
