@@ -123,3 +123,36 @@ describe.each(names)('%s patch test', (name) => {
     });
   }
 });
+
+describe('axisymmetric elements touching the axis (r = 0)', () => {
+  // Same axisymmetric field on a 3 × 2 mesh of [0, 0.3] × [0, 0.2] whose first column of nodes
+  // lies on the axis (u_r = 1e-3 r vanishes there); integration points never sit at r = 0.
+  for (const name of names) {
+    it(`${name}: uniform field reproduced with nodes on the axis`, () => {
+      const kernel = elementKernels[name];
+      const rect: PlainMesh = { coords: [], elements: [] };
+      for (let j = 0; j <= 2; j++) for (let i = 0; i <= 3; i++) rect.coords.push(0.1 * i + (i > 0 && i < 3 && j === 1 ? 0.02 : 0), 0.1 * j);
+      for (let j = 0; j < 2; j++) for (let i = 0; i < 3; i++) rect.elements.push([j * 4 + i, j * 4 + i + 1, j * 4 + i + 5, j * 4 + i + 4]);
+      const mesh = name === 't3' ? splitQuads(rect) : name === 't6' ? addMidsideNodes(splitQuads(rect)) : name === 'q8' ? addMidsideNodes(rect) : rect;
+      const model = new TestModel({ kernel, section: { kind: 'continuum', analysis: 'axisymmetric', thickness: 1 }, material, coords: mesh.coords, elements: mesh.elements });
+      const fixed = new Map<number, number>();
+      for (let n = 0; n < model.nodes; n++) {
+        const r = mesh.coords[2 * n], z = mesh.coords[2 * n + 1];
+        const edge = r < 1e-12 || Math.abs(r - 0.3) < 1e-12 || z < 1e-12 || Math.abs(z - 0.2) < 1e-12;
+        if (edge) {
+          fixed.set(2 * n, 1e-3 * r);
+          fixed.set(2 * n + 1, 2e-3 * z);
+        }
+      }
+      expect(model.solve({ fixed }).converged).toBe(true);
+      // u_r = 1e-3 r, u_z = 2e-3 z: σ_rr = σ_θθ = λ·4e-3 + 2μ·1e-3 = 2400, σ_zz = 1600 + 1600 = 3200.
+      for (const out of model.outputs) {
+        for (let p = 0; p < out.stress.length / 6; p++) {
+          expect(out.stress[6 * p]).toBeCloseTo(2400, 7);
+          expect(out.stress[6 * p + 1]).toBeCloseTo(3200, 7);
+          expect(out.stress[6 * p + 2]).toBeCloseTo(2400, 7);
+        }
+      }
+    });
+  }
+});
