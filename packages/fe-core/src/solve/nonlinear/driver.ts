@@ -16,6 +16,7 @@
  */
 import { Assembler, type AssemblyStatus } from '../../assembly/assembler';
 import { recoverReactions } from '../../constraints/dirichlet';
+import { freeRigidBodyMotions } from '../../constraints/rigidBody';
 import { describeDof, nodalTemperatures, type Problem } from '../../assembly/problem';
 import { nearestNode, reportPoints, type Frame } from '../../output/frame';
 import { frameHistory } from '../../output/history';
@@ -416,16 +417,27 @@ class Driver {
       const where = dof === undefined ? { node: undefined, direction: undefined } : describeDof(this.problem, dof);
       if (!this.anyConverged) {
         this.unconstrainedWhere = { node: where.node, direction: where.direction };
-        throw new IncrementFailure(
-          'unconstrained',
-          `The model is not held: it can move without resistance, detected at node ${where.node} in direction ${where.direction}. ` +
-            `Add supports (a fixed set or symmetry) that stop ${where.direction} there and every rigid-body motion ` +
-            `(two translations and the in-plane rotation), and check that every element is connected to the rest of the mesh.`,
-        );
+        throw new IncrementFailure('unconstrained', this.explainUnconstrained(where.node, where.direction));
       }
       throw new IncrementFailure('not-converged', `the tangent stiffness became singular at node ${where.node}, direction ${where.direction} (a mechanism or a fully softened region)`);
     }
     this.solver.solve(this.rhs, this.du);
+  }
+
+  /** Words for a model that moves without resistance: which rigid motions are free, and where. */
+  private explainUnconstrained(node: number | undefined, direction: string | undefined): string {
+    const { free } = freeRigidBodyMotions(this.problem);
+    const at = `the stiffness vanished at node ${node} in direction ${direction}`;
+    if (free.length > 0) {
+      return (
+        `The model is not held: it can move without resistance (free: ${free.join('; ')}); ${at}. ` +
+        `Add supports (a fixed set or symmetry) that stop these motions, and check that every element is connected to the rest of the mesh.`
+      );
+    }
+    return (
+      `A part of the model can move without resistance although the supports stop rigid-body motion: ${at}. ` +
+      `Check for elements or parts not connected to the rest of the mesh, nodes used by no element, and materials with zero stiffness.`
+    );
   }
 
   private equationCoordinates(): Float64Array {
