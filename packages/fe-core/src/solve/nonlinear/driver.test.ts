@@ -122,3 +122,25 @@ describe('nonlinear driver', () => {
     for (let k = 0; k < ua.length; k++) expect(ua[k]).toBeCloseTo(ub[k], 12);
   });
 });
+
+describe('nonlinear driver on a homogeneous J2 strip', () => {
+  // Uniaxial stress with linear isotropic hardening (closed form): beyond ε_y = σ_y/E,
+  // σ = σ_y + E·H/(E + H)·(ε − σ_y/E).
+  const sigmaY = 200, Hiso = 10000;
+  for (const lineSearch of [false, true]) {
+    it(`follows the closed-form stress–strain curve (line search ${lineSearch ? 'on' : 'off'})`, () => {
+      const input = strip({
+        materials: { m: { model: 'j2-plastic', E, nu: 0.25, sigma_y: sigmaY, H_iso: Hiso } },
+        segments: [{ name: 'pull', targets: { stretch: 0.2 }, increments: { initial: 0.1, min: 0.001, max: 0.2 } }],
+        solver: { forceTolerance: 1e-9, displacementTolerance: 1e-9, lineSearch },
+      });
+      const result = runAnalysis(problemOf(input));
+      expect(result.status).toBe('succeeded');
+      for (const f of result.frames) {
+        const eps = f.displacement[3 * (input.nodeSets!.right[0] - 1)] / L;
+        const target = eps <= sigmaY / E ? E * eps : sigmaY + ((E * Hiso) / (E + Hiso)) * (eps - sigmaY / E);
+        expect(f.pointStress[0]).toBeCloseTo(target, 6);
+      }
+    });
+  }
+});

@@ -222,7 +222,7 @@ class Driver {
           if (err.kind === 'unconstrained' || err.kind === 'bad-model') {
             return this.finish('failed', { kind: err.kind, message: err.message, segment: s, segmentName: seg.name, time, ...this.unconstrainedWhere });
           }
-          this.restoreIncrementStart();
+          this.cutBack();
           const newStep = step * CUT;
           cutBacks++;
           this.stats.cutBacks++;
@@ -368,7 +368,7 @@ class Driver {
       if (it >= 3 && rel > 1e3 * Math.max(firstResidual, forceTolerance)) {
         throw new IncrementFailure('not-converged', `the residual grew from ${firstResidual.toExponential(2)} to ${rel.toExponential(2)} (diverging)`);
       }
-      this.assembleTangentAndSolve();
+      this.solveCorrection();
       let eta = 1;
       if (lineSearch) eta = this.lineSearch();
       let du2 = 0;
@@ -384,7 +384,7 @@ class Driver {
     return seg.increments.maxIterations;
   }
 
-  /** Element loop at the current iterate: trial material state, fint and (optionally) K. */
+  /** Element loop at the current iterate: trial material state, fint and (assembleTangent) K. */
   private updateIntegrationPoints(wantTangent: boolean): void {
     this.evaluate(wantTangent);
     if (!this.status.ok) {
@@ -400,8 +400,8 @@ class Driver {
     return Math.max(1e-12 * maxDiag * this.problem.size, 1e-300);
   }
 
-  /** assembleTangent has run (in updateIntegrationPoints); factor K and solve K du = r. */
-  private assembleTangentAndSolve(): void {
+  /** The tangent was assembled with the integration-point update; factor it and solve K du = r. */
+  private solveCorrection(): void {
     if (this.nEq === 0) return;
     const A = this.asm.matrix;
     try {
@@ -486,8 +486,8 @@ class Driver {
     this.TOld.set(this.T);
   }
 
-  /** cutBack: back to the converged state at the start of the increment. */
-  private restoreIncrementStart(): void {
+  /** Back to the converged state at the start of the increment (the trial state is simply overwritten). */
+  private cutBack(): void {
     this.u.set(this.uOld);
     this.T.set(this.TOld);
   }
