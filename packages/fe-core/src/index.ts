@@ -36,6 +36,7 @@ export type { MeshPart, MeshNode, MeshElement, EdgeRef, ContinuumType } from './
 
 export { vonMises, principalValues, nodalAverage, extrapolateToNodes, nearestNode, reportPoints, type Frame } from './output/frame';
 export { patchRecovery, recoverNodal } from './output/recovery';
+export { locatePoint, interpolate, type Probe } from './output/probe';
 export { nodalField, pointField, kelvinToTensor, TENSOR_COMPONENTS, type NodalField } from './output/fields';
 export { frameHistory } from './output/history';
 export { frameToVtu, framesToPvd, vtuFileName } from './output/vtu';

@@ -1,15 +1,16 @@
 /**
- * Scalar history of a frame: point outputs (at the node nearest to each requested point) and
- * reaction sums over node sets.
+ * Scalar history of a frame: point outputs (nodal fields interpolated at each requested point,
+ * see probe.ts) and reaction sums over node sets.
  */
 import type { Problem } from '../assembly/problem';
 import { pointScalar, vonMises, type Frame } from './frame';
+import { interpolate, type Probe } from './probe';
 import { recoverNodal } from './recovery';
 
 const SQRT2 = Math.SQRT2;
 
-/** History values of a frame: point outputs at their nearest nodes and reaction sums on sets. */
-export function frameHistory(problem: Problem, frame: Omit<Frame, 'history'>, pointNodes: readonly number[]): Record<string, number> {
+/** History values of a frame: point outputs at their probes and reaction sums on sets. */
+export function frameHistory(problem: Problem, frame: Omit<Frame, 'history'>, probes: readonly Probe[]): Record<string, number> {
   const h: Record<string, number> = { time: frame.time };
   const out = problem.model.output;
   if (out.points.length > 0) {
@@ -17,16 +18,16 @@ export function frameHistory(problem: Problem, frame: Omit<Frame, 'history'>, po
     const stress = recoverNodal(problem, frame.pointStress, 6);
     const xi = recoverNodal(problem, frame.pointXi, 1);
     out.points.forEach((pt, k) => {
-      const n = pointNodes[k];
-      h[`${pt.name}.ux`] = frame.displacement[3 * n];
-      h[`${pt.name}.uy`] = frame.displacement[3 * n + 1];
-      h[`${pt.name}.rz`] = frame.displacement[3 * n + 2];
-      h[`${pt.name}.temperature`] = frame.temperature[n];
-      h[`${pt.name}.vonMises`] = vm[n];
-      h[`${pt.name}.sxx`] = stress[6 * n];
-      h[`${pt.name}.syy`] = stress[6 * n + 1];
-      h[`${pt.name}.sxy`] = stress[6 * n + 5] / SQRT2;
-      h[`${pt.name}.xi`] = xi[n];
+      const p = probes[k];
+      h[`${pt.name}.ux`] = interpolate(p, frame.displacement, 3, 0);
+      h[`${pt.name}.uy`] = interpolate(p, frame.displacement, 3, 1);
+      h[`${pt.name}.rz`] = interpolate(p, frame.displacement, 3, 2);
+      h[`${pt.name}.temperature`] = interpolate(p, frame.temperature, 1, 0);
+      h[`${pt.name}.vonMises`] = interpolate(p, vm, 1, 0);
+      h[`${pt.name}.sxx`] = interpolate(p, stress, 6, 0);
+      h[`${pt.name}.syy`] = interpolate(p, stress, 6, 1);
+      h[`${pt.name}.sxy`] = interpolate(p, stress, 6, 5) / SQRT2;
+      h[`${pt.name}.xi`] = interpolate(p, xi, 1, 0);
     });
   }
   for (const sum of out.reactionSums) {

@@ -12,6 +12,8 @@ import { nodalAverage, principalValues, vonMises } from './frame';
 import { patchRecovery, recoverNodal } from './recovery';
 import { buildResultDocument } from './result';
 import { frameToVtu, framesToPvd } from './vtu';
+import { interpolate, locatePoint } from './probe';
+import { quarterPlateWithHole } from '../mesh/structured';
 
 const S2 = Math.SQRT2;
 
@@ -114,5 +116,35 @@ describe('writers', () => {
     const json = JSON.parse(JSON.stringify(doc));
     expect(json.fields.stress).toEqual(['xx', 'yy', 'zz', 'yz', 'xz', 'xy']);
     expect(json.frames[1].nodal.displacement.length).toBe(problem.nodeCount);
+  });
+});
+
+describe('point probes', () => {
+  it('interpolate a uniaxial displacement field exactly inside elements (u_x = σx/E · x)', () => {
+    for (const type of ['t3', 'q4', 't6', 'q8'] as const) {
+      const input = bending(type);
+      input.output!.points = [{ name: 'inside', x: 3.3, y: 1.7 }];
+      const { problem, result } = solve(input);
+      const last = result.frames[result.frames.length - 1];
+      // Plane stress, σx = 7 MPa, E = 1000, left edge on rollers: u_x = 7x/1000.
+      expect(last.history['inside.ux']).toBeCloseTo((7 * 3.3) / 1000, 12);
+      expect(last.history['inside.sxx']).toBeCloseTo(7, 8);
+      expect(locatePoint(problem, 3.3, 1.7).element).toBeGreaterThan(0);
+    }
+  });
+
+  it('inverts the curved quadratic map and falls back to the nearest node outside the mesh', () => {
+    const part = quarterPlateWithHole({ radius: 1, halfWidth: 4, halfHeight: 4, nAround: 3, nRadial: 3, ratio: 2 }, { type: 'q8', section: 's', material: 'm' });
+    const { problem } = solve({ ...bending('q8'), ...part, supports: [{ type: 'symmetry', set: 'left', normal: 'x' }, { type: 'symmetry', set: 'bottom', normal: 'y' }], loads: [], segments: [{ name: 'none' }], output: { fields: ['displacement'], points: [], reactionSums: [], integrationPoints: false } });
+    // A point on the hole's arc at 30°, inside the mesh: its weights reproduce its coordinates.
+    const x = Math.cos(Math.PI / 6) * 1.05, y = Math.sin(Math.PI / 6) * 1.05;
+    const probe = locatePoint(problem, x, y);
+    expect(probe.element).toBeGreaterThan(0);
+    expect(interpolate(probe, problem.coords, 2, 0)).toBeCloseTo(x, 12);
+    expect(interpolate(probe, problem.coords, 2, 1)).toBeCloseTo(y, 12);
+    // Inside the hole: no element, the nearest node on the arc.
+    const hole = locatePoint(problem, 0.2, 0.2);
+    expect(hole.element).toBe(0);
+    expect(Math.hypot(problem.coords[2 * hole.nodes[0]], problem.coords[2 * hole.nodes[0] + 1])).toBeCloseTo(1, 12);
   });
 });

@@ -18,7 +18,8 @@ import { Assembler, type AssemblyStatus } from '../../assembly/assembler';
 import { recoverReactions } from '../../constraints/dirichlet';
 import { freeRigidBodyMotions } from '../../constraints/rigidBody';
 import { describeDof, nodalTemperatures, type Problem } from '../../assembly/problem';
-import { nearestNode, reportPoints, type Frame } from '../../output/frame';
+import { reportPoints, type Frame } from '../../output/frame';
+import { locatePoint, type Probe } from '../../output/probe';
 import { frameHistory } from '../../output/history';
 import { defaultSolverFactory } from './solverChoice';
 import { SingularMatrixError, type SparseDirectSolver } from '../linear/types';
@@ -156,7 +157,7 @@ class Driver {
   private readonly TSegEnd: Float64Array;
   private readonly status: AssemblyStatus = { ok: true, element: 0, message: '' };
   private readonly frames: Frame[] = [];
-  private readonly pointNodes: number[];
+  private readonly probes: Probe[];
   private analysed = false;
   private anyConverged = false;
   private forceFloor = 0;
@@ -192,7 +193,7 @@ class Driver {
     this.loadStart = new Float64Array(nLoads);
     this.loadEnd = new Float64Array(nLoads);
     this.loadNow = new Float64Array(nLoads);
-    this.pointNodes = problem.model.output.points.map((p) => nearestNode(problem, p.x, p.y));
+    this.probes = problem.model.output.points.map((p) => locatePoint(problem, p.x, p.y));
   }
 
   *run(): Generator<IterationInfo, AnalysisResult, void> {
@@ -523,7 +524,7 @@ class Driver {
       pointEqPlastic: rep.eqPlastic,
       pointTransformationStrain: rep.transformationStrain,
     };
-    const frame: Frame = { ...base, history: frameHistory(p, base, this.pointNodes) };
+    const frame: Frame = { ...base, history: frameHistory(p, base, this.probes) };
     if (this.options.keepFrames !== false) this.frames.push(frame);
     this.options.onFrame?.(frame);
   }
