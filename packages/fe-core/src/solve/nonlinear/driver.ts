@@ -413,7 +413,10 @@ class Driver {
       this.solver.factor(A);
       this.stats.factorisations++;
     } catch (err) {
-      if (!(err instanceof SingularMatrixError)) throw err;
+      if (!(err instanceof SingularMatrixError)) {
+        // Any other linear-solver failure (e.g. an iterative solver that stalls) is worth a cut-back.
+        throw new IncrementFailure('not-converged', `the linear solver failed: ${(err as Error).message}`);
+      }
       const dof = this.asm.numbering.freeDofs[err.unknown];
       const where = dof === undefined ? { node: undefined, direction: undefined } : describeDof(this.problem, dof);
       if (!this.anyConverged) {
@@ -422,7 +425,11 @@ class Driver {
       }
       throw new IncrementFailure('not-converged', `the tangent stiffness became singular at node ${where.node}, direction ${where.direction} (a mechanism or a fully softened region)`);
     }
-    this.solver.solve(this.rhs, this.du);
+    try {
+      this.solver.solve(this.rhs, this.du);
+    } catch (err) {
+      throw new IncrementFailure('not-converged', `the linear solver failed: ${(err as Error).message}`);
+    }
   }
 
   /** Words for a model that moves without resistance: which rigid motions are free, and where. */
