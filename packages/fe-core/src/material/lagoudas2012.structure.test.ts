@@ -57,7 +57,7 @@ const L = 20;
 const H = 4;
 const solverTight = { forceTolerance: 1e-10, displacementTolerance: 1e-10, lineSearch: false };
 
-function strip(type: 'q4' | 'q8', extra: Partial<ModelInput>): ModelInput {
+function strip(type: 'q4' | 'q8', extra: Partial<ModelInput> & Pick<ModelInput, 'segments'>): ModelInput {
   const mesh = rectangle({ width: L, height: H, nx: 4, ny: 2 }, { type, section: 's', material: 'niti' });
   return {
     format: 'phaseloop-model/1',
