@@ -323,10 +323,10 @@ describe('Lagoudas 2012: consistent tangent against finite differences', () => {
     }
   });
 
-  it('through the uniaxial and plane-stress reductions', () => {
-    for (const stressState of ['uniaxial', 'planeStress'] as const) {
+  it('through the uniaxial, plane-stress, plane-strain and axisymmetric reductions', () => {
+    for (const stressState of ['uniaxial', 'planeStress', 'planeStrain', 'axisymmetric'] as const) {
       const red = new ReducedMaterial(m, stressState);
-      const path = stressState === 'uniaxial' ? [[0.004], [0.012], [0.02]] : [[0.004, -0.001, 0.002], [0.012, -0.003, 0.006], [0.02, -0.005, 0.01]];
+      const path = stressState === 'uniaxial' ? [[0.004], [0.012], [0.02]] : stressState === 'axisymmetric' ? [[0.004, -0.001, -0.0015, 0.002], [0.012, -0.003, -0.0045, 0.006], [0.02, -0.005, -0.0075, 0.01]] : [[0.004, -0.001, 0.002], [0.012, -0.003, 0.006], [0.02, -0.005, 0.01]];
       const { stateOld, strainOld } = driveReduced(red, path, [T, T, T], T);
       const fwd = Float64Array.from(strainOld, (x) => x * 1.1);
       const rev = Float64Array.from(strainOld, (x) => x * 0.85);

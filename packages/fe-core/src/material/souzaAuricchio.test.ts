@@ -213,10 +213,10 @@ describe('Souza–Auricchio: consistent tangent against finite differences', () 
     expect(asym / Math.abs(t[0])).toBeLessThan(1e-9);
   });
 
-  it('through the uniaxial and plane-stress reductions', () => {
-    for (const stressState of ['uniaxial', 'planeStress'] as const) {
+  it('through the uniaxial, plane-stress, plane-strain and axisymmetric reductions', () => {
+    for (const stressState of ['uniaxial', 'planeStress', 'planeStrain', 'axisymmetric'] as const) {
       const red = new ReducedMaterial(m, stressState);
-      const path = stressState === 'uniaxial' ? [[0.008], [0.016], [0.022]] : [[0.008, -0.002, 0.004], [0.016, -0.004, 0.008], [0.022, -0.006, 0.01]];
+      const path = stressState === 'uniaxial' ? [[0.008], [0.016], [0.022]] : stressState === 'axisymmetric' ? [[0.008, -0.002, -0.003, 0.004], [0.016, -0.004, -0.006, 0.008], [0.022, -0.006, -0.008, 0.01]] : [[0.008, -0.002, 0.004], [0.016, -0.004, 0.008], [0.022, -0.006, 0.01]];
       const { stateOld, strainOld } = driveReduced(red, path, [T, T, T], T);
       for (const f of [1.1, 0.93, 2.5]) {
         const strain = Float64Array.from(strainOld, (x) => x * f);
