@@ -9,7 +9,7 @@
  * pay for it once.
  */
 import { columnCounts, eliminationTree, postorder } from './etree';
-import { invertPermutation, permutedPattern, type PermutedPattern } from './graph';
+import { invertPermutation, permutedPattern, relabelPattern, type PermutedPattern } from './graph';
 import { nestedDissectionOrder, type OrderingOptions } from './ordering';
 import type { CsrMatrix } from './types';
 
@@ -81,7 +81,7 @@ export function analyseSymbolic(A: CsrMatrix, options: SymbolicOptions = {}): Su
     const p = parent0[post[k]];
     parent1[k] = p === -1 ? -1 : ipost[p];
   }
-  const pat1 = permutedPattern(A, perm1, invertPermutation(perm1));
+  const pat1 = relabelPattern(pat0, post, ipost);
   const cc = columnCounts(n, pat1, parent1);
   let nnzL = 0;
   let flops = 0;
@@ -94,7 +94,7 @@ export function analyseSymbolic(A: CsrMatrix, options: SymbolicOptions = {}): Su
   const perm = new Int32Array(n);
   for (let k = 0; k < n; k++) perm[k] = perm1[order[k]];
   const iperm = invertPermutation(perm);
-  const pattern = permutedPattern(A, perm, iperm);
+  const pattern = relabelPattern(pat1, order, invertPermutation(order));
   const nsuper = groupWidth.length;
   const superStart = new Int32Array(nsuper + 1);
   for (let s = 0; s < nsuper; s++) superStart[s + 1] = superStart[s] + groupWidth[s];
