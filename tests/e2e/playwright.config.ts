@@ -9,7 +9,8 @@ import { defineConfig, devices } from '@playwright/test';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 const repoRoot = path.resolve(here, '../..');
-const artifacts = path.join(repoRoot, 'tests/artifacts');
+/** Screenshots, traces and the JSON report; E2E_ARTIFACTS moves them (e.g. for a second run beside a first). */
+const artifacts = path.resolve(repoRoot, process.env.E2E_ARTIFACTS ?? 'tests/artifacts');
 
 const port = Number(process.env.E2E_PORT ?? 4199);
 const baseURL = `http://127.0.0.1:${port}`;
@@ -73,9 +74,8 @@ export default defineConfig({
       HOST: '127.0.0.1',
       DATABASE_URL: process.env.DATABASE_URL ?? '',
       WEB_DIST: path.join(repoRoot, 'apps/web/dist'),
-      // Links in mails point at this test server (the contract calls it APP_URL; both are set).
+      // Links in mails point at this test server.
       APP_URL: baseURL,
-      PUBLIC_URL: baseURL,
       SESSION_SECRET: process.env.SESSION_SECRET ?? 'phaseloop-e2e-session-secret-not-for-production',
       NODE_ENV: process.env.NODE_ENV ?? 'test',
       LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',

@@ -21,7 +21,9 @@ export const DEMO_PROJECT = 'Demo stent frame (demo values)';
 export const DEMO_PROJECT_ADMIN_ONLY = 'Demo actuator wire (demo values)';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
-export const ARTIFACTS = path.resolve(here, '../artifacts');
+export const ARTIFACTS = process.env.E2E_ARTIFACTS
+  ? path.resolve(here, '../..', process.env.E2E_ARTIFACTS)
+  : path.resolve(here, '../artifacts');
 
 /** Signs in through the sign-in form, as a person would. */
 export async function signInViaForm(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
