@@ -70,7 +70,7 @@ export const lagoudas2012Schema = z.object({
   n2: smaExponent('n2'),
   n3: smaExponent('n3'),
   n4: smaExponent('n4'),
-  /** Optional J2 plastic strain: yield stresses of austenite and martensite (MPa), mixed by ξ. Not used by fe-core yet. */
+  /** Optional J2 plastic strain: yield stresses of austenite and martensite (MPa), mixed linearly by ξ, linear isotropic hardening H_iso (MPa). */
   plasticity: z
     .object({ sigma_y_A: smaPositive('sigma_y_A'), sigma_y_M: smaPositive('sigma_y_M'), H_iso: z.number().min(0).default(0) })
     .optional(),

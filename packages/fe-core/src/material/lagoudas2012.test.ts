@@ -337,3 +337,71 @@ describe('Lagoudas 2012: consistent tangent against finite differences', () => {
     }
   });
 });
+
+describe('Lagoudas 2012 with J2 plastic strain (yield stress mixed by ξ)', () => {
+  const H_iso = 5000;
+  const LP = { ...L1, plasticity: { sigma_y_A: 300, sigma_y_M: 500, H_iso } };
+  const J2 = 'closed form, uniaxial J2 plasticity with linear isotropic hardening';
+
+  it('austenite (no transformation at 130 °C): yields at σ_y,A, hardens with E·H/(E + H), keeps ε_p = (σ_max − σ_y)/H', () => {
+    const T = 130;
+    const r = runMaterialPoint(createLagoudas2012(LP), {
+      control: 'stress',
+      path: [{ value: 0, temperature: T }, { value: 330, temperature: T, increments: 330 }, { value: 0, temperature: T, increments: 100 }],
+    });
+    expect(r.ok, r.message).toBe(true);
+    const load = legRows(r.rows, 1);
+    const E = L1.E_A;
+    const Et = (E * H_iso) / (E + H_iso);
+    expect(load.every((x) => x.xi === 0)).toBe(true);
+    const e320 = interpolateAt(load, 'stress', 'strain', 320);
+    assertCheck({ suite: SUITE, name: 'J2 in austenite: strain at 320 MPa', computed: e320, target: 300 / E + (320 - 300) / Et, unit: '-', tolerance: 1e-9, source: J2 });
+    assertCheck({ suite: SUITE, name: 'J2 in austenite: residual strain after unloading from 330 MPa', computed: r.rows.at(-1)!.strain, target: 30 / H_iso, unit: '-', tolerance: 1e-9, source: J2 });
+  });
+
+  it('martensite (−20 °C, ξ = 1): yields at σ_y,M', () => {
+    const T = -20;
+    const r = runMaterialPoint(createLagoudas2012(LP), {
+      control: 'stress',
+      path: [{ value: 0, temperature: T }, { value: 520, temperature: T, increments: 260 }, { value: 0, temperature: T, increments: 100 }],
+    });
+    expect(r.ok, r.message).toBe(true);
+    expect(r.rows.every((x) => x.xi === 1)).toBe(true);
+    assertCheck({ suite: SUITE, name: 'J2 in martensite: residual strain after unloading from 520 MPa', computed: r.rows.at(-1)!.strain, target: 20 / H_iso, unit: '-', tolerance: 1e-9, source: J2 });
+  });
+
+  it('consistent tangent in plastic, plastic + forward, perfectly plastic + forward, and reverse branches', () => {
+    const T = 40;
+    const dir = [1, -0.35, -0.4, 0.3, 0.1, 0.25];
+    const scaled = (s: number) => Float64Array.from(dir, (d) => d * s);
+    for (const plasticity of [{ sigma_y_A: 150, sigma_y_M: 250, H_iso: 3000 }, { sigma_y_A: 230, sigma_y_M: 260, H_iso: 0 }]) {
+      const m = createLagoudas2012({ ...L2, alpha_A: 11e-6, alpha_M: 6.6e-6, plasticity });
+      const size = m.stateSize;
+      expect(size).toBe(21);
+      const run = (strain: Float64Array, old: Float64Array, temp = T) => {
+        const state = new Float64Array(size);
+        const out = createMaterialPointOutput();
+        m.update({ strain, strainOld: new Float64Array(6), temperature: temp, temperatureOld: temp }, old, 0, state, 0, out);
+        expect(out.ok, out.message).toBe(true);
+        return state;
+      };
+      const virgin = new Float64Array(size);
+      m.initState(virgin, 0, T);
+      const hot = new Float64Array(size);
+      m.initState(hot, 0, 150);
+      const cases: [string, Float64Array, Float64Array, number, (s: Float64Array) => boolean][] = [
+        ['plastic, no transformation', scaled(0.006), hot, 150, (s) => s[20] > 0 && s[6] === 0],
+        ['plastic + forward', scaled(0.04), virgin, T, (s) => s[20] > 0 && s[6] > 0 && s[6] < 1],
+      ];
+      const mid = run(scaled(0.04), virgin);
+      cases.push(['reverse after plastic + forward', scaled(0.03), mid, T, (s) => s[6] < mid[6] && s[6] > 0]);
+      cases.push(['forward from a plastic, transformed state', scaled(0.05), mid, T, (s) => s[20] >= mid[20] && s[6] > mid[6]]);
+      for (const [name, strain, old, temp, branch] of cases) {
+        const s = run(strain, old, temp);
+        expect(branch(s), `${name} (H_iso = ${plasticity.H_iso}): ξ = ${s[6]}, p = ${s[20]}`).toBe(true);
+        const err = tangentErrorSolid(m, { strain, strainOld: new Float64Array(6), temperature: temp, temperatureOld: temp }, old, 1e-8);
+        expect(err, `${name} (H_iso = ${plasticity.H_iso})`).toBeLessThan(2e-6);
+      }
+    }
+  });
+});

@@ -3,7 +3,13 @@
  * small strain, isotropic elasticity with one Poisson ratio and Reuss-mixed compliance.
  *
  * State per point (14 doubles): εᵗ (6, Kelvin–Mandel), ξ, εᵗʳ (6), ξʳ — the transformation strain,
- * the martensite fraction and the reversal memory (values at the end of the last forward step).
+ * the martensite fraction and the reversal memory (values at the end of the last forward step);
+ * with the optional J2 part 21: plus the plastic strain εᵖ (6) and the equivalent plastic strain p.
+ *
+ * Optional J2 plastic strain: von Mises yield σ̄ ≤ σ_y,A + ξ(σ_y,M − σ_y,A) + H_iso p with radial
+ * (associated) flow. Both deviatoric flows are along σ', so at fixed ξ the plastic return is one
+ * more monotone scalar equation inside the same σ(ξ) evaluation, and the yield stress's
+ * dependence on ξ enters the consistent tangent through Ξ N.
  *
  * Return map: backward Euler (closest point). For a fixed ξ the strain equation
  *   S(ξ):σ + εᵗ_n + (ξ − ξ_n)Λ(σ) + α(ξ)(T − T_ref)1 = ε
@@ -29,7 +35,11 @@ const ET = 0;
 const XI = 6;
 const ETR = 7;
 const XIR = 13;
+/** Optional J2 part: plastic strain (6) and equivalent plastic strain. */
+const EP = 14;
+const PEQ = 20;
 export const LAGOUDAS2012_STATE_SIZE = 14;
+export const LAGOUDAS2012_PLASTIC_STATE_SIZE = 21;
 
 /** Smoothing of ξ^n for n < 1 (infinite slope at 0): ξ^n → ξ(ξ + δ)^(n−1). */
 const SMOOTH = 1e-5;
@@ -60,7 +70,7 @@ function zero6(a: Float64Array): void {
 
 export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   readonly model = 'lagoudas2012';
-  readonly stateSize = LAGOUDAS2012_STATE_SIZE;
+  readonly stateSize: number;
 
   // Base state of the current phase (start of increment, or the intermediate state after a
   // reverse phase that is followed by a forward one).
@@ -68,6 +78,8 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private readonly etrB = new Float64Array(6);
   private xiB = 0;
   private xirB = 0;
+  private readonly epB = new Float64Array(6);
+  private pB = 0;
   private readonly lamR = new Float64Array(6);
 
   // Loading of the current evaluation.
@@ -85,7 +97,11 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private readonly xiPhi = new Float64Array(6);
   private sC = 0;
   private aC = 0;
-  private bC = 0;
+  /** Inverse radial compliance of Ξ (0 for perfect plasticity), and the radial b without plasticity. */
+  private ibC = 0;
+  private bRaw = 0;
+  /** Plastic multiplier Δp of the last evaluation. */
+  private dpC = 0;
   private denC = 0;
   private failure = '';
 
@@ -93,6 +109,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private readonly tolPhi: number;
 
   constructor(readonly params: Lagoudas2012Constants) {
+    this.stateSize = params.plastic ? LAGOUDAS2012_PLASTIC_STATE_SIZE : LAGOUDAS2012_STATE_SIZE;
     this.tolPhi = 1e-11 * (params.Y0 + Math.abs(params.a1) + Math.abs(params.a2));
   }
 
@@ -105,7 +122,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
 
   report(state: Float64Array, offset: number, out: MaterialReport): void {
     out.xi = state[offset + XI];
-    out.eqPlastic = 0;
+    out.eqPlastic = this.params.plastic ? state[offset + PEQ] : 0;
     for (let i = 0; i < 6; i++) out.transformationStrain[i] = state[offset + ET + i];
   }
 
@@ -152,7 +169,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private knownStrain(xi: number): void {
     const p = this.params;
     const th = (p.alpha_A + xi * p.dAlpha) * (this.temp - p.T_ref);
-    for (let i = 0; i < 6; i++) this.estar[i] = this.eps[i] - this.etB[i];
+    for (let i = 0; i < 6; i++) this.estar[i] = this.eps[i] - this.etB[i] - this.epB[i];
     this.estar[0] -= th;
     this.estar[1] -= th;
     this.estar[2] -= th;
@@ -186,7 +203,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     const n = this.nhat;
     let nv = 0;
     for (let i = 0; i < 6; i++) nv += n[i] * v[i];
-    const c = nv * (1 / this.bC - 1 / this.aC);
+    const c = nv * (this.ibC - 1 / this.aC);
     for (let i = 0; i < 6; i++) out[i] = (i < 3 ? v[i] - trv : v[i]) / this.aC + c * n[i];
     out[0] += kv;
     out[1] += kv;
@@ -249,11 +266,21 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       x = xn;
     }
     if (!converged) this.failure = 'forward transformation: stress equation did not converge';
+    let dp = 0;
+    if (p.plastic && x > p.yA + xi * p.dY + p.Hiso * this.pB) {
+      dp = this.plasticForward(xi, dxi, c, target);
+      x = p.yA + xi * p.dY + p.Hiso * (this.pB + dp);
+      const ex = p.k_t === 0 ? 1 : Math.exp(-p.k_t * x);
+      H = p.H_min + (p.H_sat - p.H_min) * (1 - ex);
+      Hp = (p.H_sat - p.H_min) * p.k_t * ex;
+      const sr = Math.sqrt(x * x + r2);
+      g = x / sr;
+      gp = r2 / (sr * sr * sr);
+    }
     const sbar = x;
-    const a = c + 1.5 * dxi * H / Math.sqrt(sbar * sbar + r2);
+    const a = c + 1.5 * dxi * H / Math.sqrt(sbar * sbar + r2) + (dp > 0 ? (1.5 * dp) / sbar : 0);
     const b = c + 1.5 * dxi * (Hp * g + H * gp);
-    this.aC = a;
-    this.bC = b;
+    this.setRadial(a, b, dp);
     const dev = Math.sqrt(2 / 3) * sbar;
     const pm = tr / (3 * s * (1 - 2 * p.nu));
     const lamMag = SQ32 * H * g;
@@ -272,11 +299,64 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     for (let i = 0; i < 6; i++) this.phiS[i] = dPhiBar * this.nhat[i] + p.dS * (1 + p.nu) * this.sig[i];
     for (let i = 0; i < 3; i++) this.phiS[i] += -p.dS * p.nu * trs + p.dAlpha * dT;
     this.buildN(this.lam);
-    this.applyXi(this.nVec, this.xiN);
+    this.applyXiN();
     let q = 0;
     for (let i = 0; i < 6; i++) q += this.phiS[i] * this.xiN[i];
     this.denC = q + this.fFwdSlope(xi);
     return phi;
+  }
+
+  /**
+   * Plastic multiplier in the forward branch at fixed ξ: σ̄ = σ_y(ξ) + H_iso(p_n + Δp) and
+   * c σ̄ + 1.5 Δξ H(σ̄) g(σ̄) + 1.5 Δp = √(3/2)‖e*'‖ — monotone in Δp, bracketed Newton.
+   */
+  private plasticForward(xi: number, dxi: number, c: number, target: number): number {
+    const p = this.params;
+    const r2 = p.sigmaReg * p.sigmaReg;
+    let lo = 0;
+    let hi = target / 1.5;
+    let dp = 0;
+    for (let it = 0; it < MAX_INNER; it++) {
+      const y = p.yA + xi * p.dY + p.Hiso * (this.pB + dp);
+      const ex = p.k_t === 0 ? 1 : Math.exp(-p.k_t * y);
+      const H = p.H_min + (p.H_sat - p.H_min) * (1 - ex);
+      const Hp = (p.H_sat - p.H_min) * p.k_t * ex;
+      const sr = Math.sqrt(y * y + r2);
+      const g = y / sr;
+      const gp = r2 / (sr * sr * sr);
+      const phi = c * y + 1.5 * dxi * H * g + 1.5 * dp - target;
+      if (Math.abs(phi) <= 1e-15 * target) return dp;
+      if (phi > 0) hi = dp;
+      else lo = dp;
+      const dphi = (c + 1.5 * dxi * (Hp * g + H * gp)) * p.Hiso + 1.5;
+      let next = dp - phi / dphi;
+      if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+      if (Math.abs(next - dp) <= 1e-16 * Math.max(hi, 1e-300)) return next;
+      dp = next;
+    }
+    this.failure = 'plastic return did not converge';
+    return dp;
+  }
+
+  /** Stores the spectral parts of Ξ: transverse a, radial b (inverse 0 for perfect plasticity). */
+  private setRadial(a: number, b: number, dp: number): void {
+    const p = this.params;
+    this.aC = a;
+    this.bRaw = b;
+    this.dpC = dp;
+    this.ibC = dp > 0 ? p.Hiso / (b * p.Hiso + 1.5) : 1 / b;
+  }
+
+  /**
+   * xiN = Ξ N; when plastic, the yield stress moves with ξ (σ_y(ξ)), which adds
+   * −√(3/2)·dY/(1.5 + b·H_iso) along n̂ (finite also for H_iso = 0).
+   */
+  private applyXiN(): void {
+    this.applyXi(this.nVec, this.xiN);
+    if (this.dpC > 0) {
+      const c = (-SQ32 * this.params.dY) / (1.5 + this.bRaw * this.params.Hiso);
+      for (let i = 0; i < 6; i++) this.xiN[i] += c * this.nhat[i];
+    }
   }
 
   /** Reverse: σ explicit for a given ξ ≤ ξ_base (direction Λ_r = εᵗʳ/ξʳ frozen). */
@@ -285,12 +365,35 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     const dxi = xi - this.xiB;
     const s = this.compliance(xi);
     this.sC = s;
-    this.aC = s * (1 + p.nu);
-    this.bC = this.aC;
-    for (let i = 0; i < 6; i++) this.nhat[i] = 0;
+    const c = s * (1 + p.nu);
     this.knownStrain(xi);
-    for (let i = 0; i < 6; i++) this.estar[i] -= dxi * this.lamR[i];
-    this.applyXi(this.estar, this.sig);
+    const e = this.estar;
+    for (let i = 0; i < 6; i++) e[i] -= dxi * this.lamR[i];
+    // σ' ∥ deviator of the known strain; radial return when the yield stress is exceeded
+    const tr = e[0] + e[1] + e[2];
+    const m = tr / 3;
+    let nn = 0;
+    for (let i = 0; i < 6; i++) {
+      const d = i < 3 ? e[i] - m : e[i];
+      this.nhat[i] = d;
+      nn += d * d;
+    }
+    const enorm = Math.sqrt(nn);
+    if (enorm > 0) for (let i = 0; i < 6; i++) this.nhat[i] /= enorm;
+    else zero6(this.nhat);
+    let sbar = (SQ32 * enorm) / c;
+    let dp = 0;
+    if (p.plastic) {
+      const y0 = p.yA + xi * p.dY + p.Hiso * this.pB;
+      if (sbar > y0) {
+        dp = (SQ32 * enorm - c * y0) / (c * p.Hiso + 1.5);
+        sbar = y0 + p.Hiso * dp;
+      }
+    }
+    this.setRadial(dp > 0 ? c + (1.5 * dp) / sbar : c, c, dp);
+    const dev = Math.sqrt(2 / 3) * sbar;
+    const pm = tr / (3 * s * (1 - 2 * p.nu));
+    for (let i = 0; i < 6; i++) this.sig[i] = dev * this.nhat[i] + (i < 3 ? pm : 0);
     const dT = this.temp - p.T_ref;
     const trs = this.sig[0] + this.sig[1] + this.sig[2];
     let sl = 0;
@@ -302,7 +405,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     for (let i = 0; i < 6; i++) this.phiS[i] = -(1 + p.D) * this.lamR[i] - p.dS * (1 + p.nu) * this.sig[i];
     for (let i = 0; i < 3; i++) this.phiS[i] += p.dS * p.nu * trs - p.dAlpha * dT;
     this.buildN(this.lamR);
-    this.applyXi(this.nVec, this.xiN);
+    this.applyXiN();
     let q = 0;
     for (let i = 0; i < 6; i++) q += this.phiS[i] * this.xiN[i];
     this.denC = q - this.fRevSlope(xi);
@@ -360,6 +463,10 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     }
     this.xiB = state[offset + XI];
     this.xirB = state[offset + XIR];
+    if (this.params.plastic) {
+      for (let i = 0; i < 6; i++) this.epB[i] = state[offset + EP + i];
+      this.pB = state[offset + PEQ];
+    }
   }
 
   /**
@@ -431,8 +538,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       }
       // re-evaluate at the end state of the last phase for stress and tangent
       this.reevaluateEnd(mode);
-    }
-    // elastic: the trial evaluation (Δξ = 0) already holds stress and the elastic Ξ
+    } else this.commitPlastic(); // no transformation: the trial evaluation (Δξ = 0) holds σ, Ξ and Δp
     this.writeState(state, newOffset);
     for (let i = 0; i < 6; i++) out.stress[i] = this.sig[i];
     this.writeTangent(out.tangent, mode !== 'elastic' && transforming);
@@ -462,10 +568,14 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private readonly psEtr = new Float64Array(6);
   private psXi = 0;
   private psXir = 0;
+  private readonly psEp = new Float64Array(6);
+  private psP = 0;
 
   private snapshotPhaseStart(): void {
     copy6(this.etB, this.psEt);
     copy6(this.etrB, this.psEtr);
+    copy6(this.epB, this.psEp);
+    this.psP = this.pB;
     this.psXi = this.xiB;
     this.psXir = this.xirB;
   }
@@ -473,11 +583,22 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private restorePhaseStart(): void {
     copy6(this.psEt, this.etB);
     copy6(this.psEtr, this.etrB);
+    copy6(this.psEp, this.epB);
+    this.pB = this.psP;
     this.xiB = this.psXi;
     this.xirB = this.psXir;
   }
 
+  /** Adds the plastic increment of the last evaluation to the base. */
+  private commitPlastic(): void {
+    if (!(this.dpC > 0)) return;
+    const d = SQ32 * this.dpC;
+    for (let i = 0; i < 6; i++) this.epB[i] += d * this.nhat[i];
+    this.pB += this.dpC;
+  }
+
   private commitPhaseEnd(xi: number, dir: Direction): void {
+    this.commitPlastic();
     const dxi = xi - this.xiB;
     const lam = dir === 'forward' ? this.lam : this.lamR;
     for (let i = 0; i < 6; i++) this.etB[i] += dxi * lam[i];
@@ -500,6 +621,10 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     }
     state[offset + XI] = this.xiB;
     state[offset + XIR] = this.xirB;
+    if (this.params.plastic) {
+      for (let i = 0; i < 6; i++) state[offset + EP + i] = this.epB[i];
+      state[offset + PEQ] = this.pB;
+    }
   }
 
   /** Ξ − (ΞN)⊗(Ξ ∂Φ/∂σ)/den while transforming, Ξ otherwise. */
@@ -507,7 +632,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     const p = this.params;
     const kv = 1 / (3 * this.sC * (1 - 2 * p.nu));
     const ia = 1 / this.aC;
-    const dn = 1 / this.bC - ia;
+    const dn = this.ibC - ia;
     const n = this.nhat;
     for (let i = 0; i < 6; i++) {
       for (let j = 0; j < 6; j++) {

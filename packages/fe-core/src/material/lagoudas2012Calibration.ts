@@ -36,6 +36,8 @@ export interface Lagoudas2012Measured {
   n2: number;
   n3: number;
   n4: number;
+  /** Optional J2 plastic strain: yield stresses of austenite and martensite (mixed by ξ), linear isotropic hardening. */
+  plasticity?: { sigma_y_A: number; sigma_y_M: number; H_iso?: number };
 }
 
 export interface Lagoudas2012Constants extends Lagoudas2012Measured {
@@ -54,6 +56,11 @@ export interface Lagoudas2012Constants extends Lagoudas2012Measured {
   dAlpha: number;
   /** Regularising stress for the flow direction at vanishing von Mises stress (MPa). */
   sigmaReg: number;
+  /** J2 plasticity on: yield σ_y(ξ, p) = yA + ξ·dY + Hiso·p. */
+  plastic: boolean;
+  yA: number;
+  dY: number;
+  Hiso: number;
 }
 
 export type CalibrationResult =
@@ -91,6 +98,12 @@ function checkInputs(m: Lagoudas2012Measured): CalibrationResult | null {
   if (m.k_t < 0) return reject('k_t', 'must be ≥ 0');
   for (const f of ['n1', 'n2', 'n3', 'n4'] as const) {
     if (!(m[f] > 0 && m[f] <= 1)) return reject(f, 'smoothing exponents must lie in (0, 1]');
+  }
+  if (m.plasticity) {
+    const { sigma_y_A, sigma_y_M, H_iso = 0 } = m.plasticity;
+    if (!(sigma_y_A > 0)) return reject('plasticity.sigma_y_A', 'must be > 0');
+    if (!(sigma_y_M > 0)) return reject('plasticity.sigma_y_M', 'must be > 0');
+    if (!(H_iso >= 0)) return reject('plasticity.H_iso', 'must be ≥ 0');
   }
   if (!(m.Ms0 > m.Mf0)) return reject('Mf0', `martensite finish Mf0 (${m.Mf0}) must be below martensite start Ms0 (${m.Ms0})`);
   if (!(m.Af0 > m.As0)) return reject('Af0', `austenite finish Af0 (${m.Af0}) must be above austenite start As0 (${m.As0})`);
@@ -133,6 +146,12 @@ export function calibrateLagoudas2012(m: Lagoudas2012Measured): CalibrationResul
   const sigmaReg = 0.1;
   return {
     ok: true,
-    constants: { ...m, rhoDs0, D, a1, a2, a3, rhoDu0, Y0, dS, dAlpha: m.alpha_M - m.alpha_A, sigmaReg },
+    constants: {
+      ...m, rhoDs0, D, a1, a2, a3, rhoDu0, Y0, dS, dAlpha: m.alpha_M - m.alpha_A, sigmaReg,
+      plastic: m.plasticity !== undefined,
+      yA: m.plasticity?.sigma_y_A ?? Infinity,
+      dY: m.plasticity ? m.plasticity.sigma_y_M - m.plasticity.sigma_y_A : 0,
+      Hiso: m.plasticity?.H_iso ?? 0,
+    },
   };
 }
