@@ -55,6 +55,27 @@ export function buildPattern(problem: Problem, numbering: DofNumbering): { rowPt
   return { rowPtr, colIdx };
 }
 
+/** Pattern of the coupling block: free equations × prescribed dofs touched by a common element. */
+export function buildCouplingPattern(problem: Problem, numbering: DofNumbering): CsrMatrix {
+  const n = numbering.freeDofs.length;
+  const rows: number[][] = Array.from({ length: n }, () => []);
+  for (const el of problem.elements) {
+    const cols: number[] = [];
+    for (const d of el.dofs) if (numbering.prescribedIndex[d] >= 0) cols.push(numbering.prescribedIndex[d]);
+    if (cols.length === 0) continue;
+    for (const d of el.dofs) {
+      const eq = numbering.equation[d];
+      if (eq >= 0) rows[eq].push(...cols);
+    }
+  }
+  const rowPtr = new Int32Array(n + 1);
+  const sorted = rows.map((r) => [...new Set(r)].sort((a, b) => a - b));
+  for (let i = 0; i < n; i++) rowPtr[i + 1] = rowPtr[i] + sorted[i].length;
+  const colIdx = new Int32Array(rowPtr[n]);
+  sorted.forEach((r, i) => colIdx.set(r, rowPtr[i]));
+  return { n, rowPtr, colIdx, values: new Float64Array(colIdx.length) };
+}
+
 function findInRow(rowPtr: Int32Array, colIdx: Int32Array, row: number, col: number): number {
   let lo = rowPtr[row];
   let hi = rowPtr[row + 1] - 1;
@@ -109,7 +130,13 @@ export class Assembler {
   /** Strain and stress (3D Kelvin–Mandel) of every material point from the last evaluation. */
   readonly pointStrain: Float64Array;
   readonly pointStress: Float64Array;
+  /**
+   * Coupling block K_fp (free rows × prescribed columns, CSR), assembled with the tangent: the
+   * driver's predictor turns an increment of prescribed displacements into free-dof forces.
+   */
+  readonly coupling: CsrMatrix;
   private readonly scatter: Int32Array[];
+  private readonly couplingScatter: (Int32Array | null)[];
   private readonly outputs: ElementOutput[];
   private readonly ctx: MutableContext;
   private readonly buffers = new Map<number, { u: Float64Array; uOld: Float64Array; T: Float64Array; TOld: Float64Array }>();
@@ -122,6 +149,8 @@ export class Assembler {
     this.pointStrain = new Float64Array(6 * problem.pointCount);
     this.pointStress = new Float64Array(6 * problem.pointCount);
     this.scatter = problem.elements.map((el) => this.elementScatter(el));
+    this.coupling = buildCouplingPattern(problem, this.numbering);
+    this.couplingScatter = problem.elements.map((el) => this.elementCouplingScatter(el));
     const outputCache = new Map<string, ElementOutput>();
     this.outputs = problem.elements.map((el) => {
       const key = `${el.kernel.name}|${el.sectionName}`;
@@ -163,6 +192,33 @@ export class Assembler {
     return map;
   }
 
+  private elementCouplingScatter(el: ProblemElement): Int32Array | null {
+    const nd = el.dofs.length;
+    const { equation, prescribedIndex } = this.numbering;
+    if (!el.dofs.some((d) => prescribedIndex[d] >= 0)) return null;
+    const map = new Int32Array(nd * nd).fill(-1);
+    const { rowPtr, colIdx } = this.coupling;
+    for (let a = 0; a < nd; a++) {
+      const row = equation[el.dofs[a]];
+      if (row < 0) continue;
+      for (let b = 0; b < nd; b++) {
+        const col = prescribedIndex[el.dofs[b]];
+        if (col >= 0) map[a * nd + b] = findInRow(rowPtr, colIdx, row, col);
+      }
+    }
+    return map;
+  }
+
+  /** y = K_fp · v over the prescribed dofs (v indexed like `numbering.prescribed`). */
+  couplingTimes(v: Float64Array, y: Float64Array): void {
+    const { n, rowPtr, colIdx, values } = this.coupling;
+    for (let i = 0; i < n; i++) {
+      let s = 0;
+      for (let p = rowPtr[i]; p < rowPtr[i + 1]; p++) s += values[p] * v[colIdx[p]];
+      y[i] = s;
+    }
+  }
+
   private buffersFor(el: ProblemElement) {
     const key = el.dofs.length * 100 + el.nodes.length;
     let b = this.buffers.get(key);
@@ -194,7 +250,10 @@ export class Assembler {
   assemble(input: AssemblyInput, wantTangent: boolean, status: AssemblyStatus): void {
     const { fint, matrix, pointStrain, pointStress, ctx } = this;
     fint.fill(0);
-    if (wantTangent) matrix.values.fill(0);
+    if (wantTangent) {
+      matrix.values.fill(0);
+      this.coupling.values.fill(0);
+    }
     status.ok = true;
     status.element = 0;
     status.message = '';
@@ -240,6 +299,14 @@ export class Assembler {
         for (let k = 0; k < nd * nd; k++) {
           const pos = map[k];
           if (pos >= 0) values[pos] += K[k];
+        }
+        const cmap = this.couplingScatter[e];
+        if (cmap) {
+          const cv = this.coupling.values;
+          for (let k = 0; k < nd * nd; k++) {
+            const pos = cmap[k];
+            if (pos >= 0) cv[pos] += K[k];
+          }
         }
       }
       const p0 = 6 * el.pointOffset;

@@ -13,6 +13,8 @@ export interface DofNumbering {
   /** Global dof of every equation. */
   readonly freeDofs: Int32Array;
   readonly prescribed: Int32Array;
+  /** Position of every global dof in `prescribed`, −1 when free. */
+  readonly prescribedIndex: Int32Array;
 }
 
 export function numberDofs(problem: Problem): DofNumbering {
@@ -23,7 +25,9 @@ export function numberDofs(problem: Problem): DofNumbering {
   const freeDofs = new Int32Array(n);
   for (let i = 0; i < problem.nDof; i++) if (equation[i] >= 0) freeDofs[equation[i]] = i;
   const prescribed = Int32Array.from(problem.dirichlet, (d) => d.dof);
-  return { equation, freeDofs, prescribed };
+  const prescribedIndex = new Int32Array(problem.nDof).fill(-1);
+  prescribed.forEach((d, k) => (prescribedIndex[d] = k));
+  return { equation, freeDofs, prescribed, prescribedIndex };
 }
 
 /** Reactions at the prescribed dofs: R = f_int − f_ext (written into `out`, zero elsewhere). */

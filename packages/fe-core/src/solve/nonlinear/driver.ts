@@ -84,6 +84,12 @@ export interface AnalysisOptions extends AnalysisHooks {
   createSolver?: () => SparseDirectSolver;
   /** Keep frames in the result (default true; a worker streaming frames may turn it off). */
   keepFrames?: boolean;
+  /**
+   * Start each increment with a predictor from the converged tangent, the load step and the
+   * prescribed-displacement step (default true). Without it the prescribed step is applied to
+   * the boundary nodes alone and the first iterate strains only the boundary elements.
+   */
+  predictor?: boolean;
 }
 
 /** A converged increment needing this many iterations or fewer lets the next one grow. */
@@ -148,6 +154,8 @@ class Driver {
   private stateOld: Float64Array;
   private readonly fext: Float64Array;
   private readonly rhs: Float64Array;
+  private readonly predictorFint: Float64Array;
+  private readonly predictorStep: Float64Array;
   private readonly du: Float64Array;
   /** Load values at the start of the current segment and at its end. */
   private readonly loadStart: Float64Array;
@@ -188,6 +196,8 @@ class Driver {
     this.state.set(this.stateOld);
     this.fext = new Float64Array(this.nDof);
     this.rhs = new Float64Array(this.nEq);
+    this.predictorFint = new Float64Array(this.nEq);
+    this.predictorStep = new Float64Array(problem.dirichlet.length);
     this.du = new Float64Array(this.nEq);
     const nLoads = problem.loads.length;
     this.loadStart = new Float64Array(nLoads);
@@ -200,6 +210,7 @@ class Driver {
     const segments = this.problem.model.segments;
     // Frame 0: the unloaded initial state (stresses from the initial evaluation, normally zero).
     this.evaluate(true);
+    this.tangentFresh = true;
     this.emitFrame(0, 0, 0, 0);
     let time = 0;
     for (let s = 0; s < segments.length; s++) {
@@ -333,7 +344,9 @@ class Driver {
   ): Generator<IterationInfo, number, void> {
     const seg = this.problem.model.segments[segment];
     const { forceTolerance, displacementTolerance, lineSearch } = this.problem.model.solver;
-    this.applyLoads(fraction);
+    if (this.options.predictor !== false && this.nEq > 0) this.predict(fraction);
+    else this.applyLoads(fraction);
+    this.tangentFresh = false;
     const { freeDofs } = this.asm.numbering;
     let correction = Number.NaN;
     let firstResidual = 0;
@@ -383,6 +396,45 @@ class Driver {
       correction = Math.sqrt(du2) / Math.max(Math.sqrt(inc2), 1e-12 * this.problem.size);
     }
     return seg.increments.maxIterations;
+  }
+
+  /**
+   * Predictor: the first correction of the increment from the converged state's tangent,
+   *   K_ff du_f = f_ext,f(new) − f_int,f(converged) − K_fp Δu_p,
+   * so a step of prescribed displacement spreads over the whole body (as the linear response
+   * would) instead of straining only the elements at the boundary in the first iterate.
+   */
+  private predict(fraction: number): void {
+    const { freeDofs, prescribed } = this.asm.numbering;
+    if (!this.tangentFresh) {
+      // After a cut-back the assembled tangent belongs to a failed iterate: rebuild it.
+      this.evaluate(true);
+      if (!this.status.ok) throw new IncrementFailure('material', `material point in element ${this.status.element} failed at the converged state (${this.status.message})`);
+    }
+    const fintOld = this.predictorFint;
+    for (let k = 0; k < this.nEq; k++) fintOld[k] = this.asm.fint[freeDofs[k]];
+    this.applyLoads(fraction);
+    const step = this.predictorStep;
+    let stepNorm = 0;
+    for (let k = 0; k < prescribed.length; k++) {
+      step[k] = this.u[prescribed[k]] - this.uOld[prescribed[k]];
+      stepNorm += step[k] * step[k];
+    }
+    if (stepNorm > 0) this.asm.couplingTimes(step, this.rhs);
+    else this.rhs.fill(0);
+    let r2 = 0;
+    let f2 = 0;
+    for (let k = 0; k < this.nEq; k++) {
+      const d = freeDofs[k];
+      const r = this.fext[d] - fintOld[k] - this.rhs[k];
+      this.rhs[k] = r;
+      r2 += r * r;
+      f2 += this.fext[d] * this.fext[d] + fintOld[k] * fintOld[k];
+    }
+    // Nothing to predict (a hold, or a temperature change only): the iterations take over.
+    if (r2 <= 1e-28 * Math.max(f2, this.forceFloor * this.forceFloor)) return;
+    this.solveCorrection();
+    for (let k = 0; k < this.nEq; k++) this.u[freeDofs[k]] += this.du[k];
   }
 
   /** Element loop at the current iterate: trial material state, fint and (assembleTangent) K. */
@@ -485,6 +537,7 @@ class Driver {
 
   private commitIncrement(): void {
     this.anyConverged = true;
+    this.tangentFresh = true;
     this.startScale = this.lastScale;
     // The trial state of the last (converged) evaluation becomes the converged state.
     const tmp = this.stateOld;
@@ -537,6 +590,8 @@ class Driver {
   }
 
   private frameCount = 0;
+  /** Whether the assembled tangent and fint belong to the converged state (after a commit). */
+  private tangentFresh = false;
 
   private finish(status: AnalysisResult['status'], failure?: AnalysisFailure): AnalysisResult {
     if (status === 'cancelled') {
