@@ -85,6 +85,8 @@ export interface RunSummary {
   id: Id;
   studyId: Id;
   studyName: string;
+  /** Sequence number within the project, as people refer to runs ("run 12"). */
+  number?: number;
   state: RunState;
   queuedAt: IsoDateTime | null;
   startedAt: IsoDateTime | null;
@@ -96,6 +98,10 @@ export interface TestDataSummary {
   name: string;
   kind: string;
   filename: string;
+  /** Test temperature in °C (tensile curves); null when it does not apply. */
+  temperature?: number | null;
+  /** File size in bytes. */
+  size?: number;
   isDemo: boolean;
   createdAt: IsoDateTime;
 }

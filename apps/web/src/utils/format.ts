@@ -60,3 +60,17 @@ export function personName(value: string | { name?: string; email?: string } | n
   if (typeof value === 'string') return value;
   return value.name || value.email || '—';
 }
+
+/** File sizes in binary steps, as file managers show them: "812 B", "14.2 KiB", "3.1 MiB". */
+export function formatBytes(bytes: number): string {
+  if (!Number.isFinite(bytes) || bytes < 0) return '—';
+  if (bytes < 1024) return `${bytes} B`;
+  const units = ['KiB', 'MiB', 'GiB'];
+  let value = bytes / 1024;
+  let unit = 0;
+  while (value >= 1024 && unit < units.length - 1) {
+    value /= 1024;
+    unit += 1;
+  }
+  return `${value.toFixed(value < 10 ? 1 : 0)} ${units[unit]}`;
+}
