@@ -1,26 +1,24 @@
 #!/usr/bin/env bash
-# `npm run bench`: runs every bench/*.bench.ts (each prints Markdown) and writes bench/results.md
-# with the machine it ran on. Benchmarks measure speed; tests never assert timings.
+# `npm run bench [NAME...]`: runs bench/*.bench.ts (or only bench/NAME.bench.ts). Each benchmark
+# rewrites its own section of bench/results.md (bench/lib/results.ts); this script only runs them.
+# Benchmarks measure speed; tests never assert timings.
 set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 cd "$ROOT"
 shopt -s nullglob
-benches=(bench/*.bench.ts)
+if [[ $# -gt 0 ]]; then
+  benches=()
+  for name in "$@"; do benches+=("bench/${name%.bench.ts}.bench.ts"); done
+else
+  benches=(bench/*.bench.ts)
+fi
 if [[ ${#benches[@]} -eq 0 ]]; then
-  echo "bench: no benchmarks yet (add bench/NAME.bench.ts printing Markdown)"
+  echo "bench: no benchmarks yet (add bench/NAME.bench.ts)"
   exit 0
 fi
-out="bench/results.md"
-{
-  echo "# Benchmarks"
-  echo
-  echo "Written by \`npm run bench\` on $(date -u +%Y-%m-%d) — $(nproc) cores, $(awk '/MemTotal/ {printf "%.0f GiB", $2/1048576}' /proc/meminfo), Node $(node -v), commit $(git rev-parse --short HEAD 2>/dev/null || echo unknown)."
-  for b in "${benches[@]}"; do
-    echo
-    echo "## $(basename "$b" .bench.ts)"
-    echo
-    node_modules/.bin/tsx "$b"
-  done
-} >"$out.tmp"
-mv "$out.tmp" "$out"
-echo "bench: wrote $out"
+for b in "${benches[@]}"; do
+  [[ -f "$b" ]] || { echo "bench: no such benchmark $b" >&2; exit 2; }
+  echo "bench: $b"
+  node_modules/.bin/tsx "$b"
+done
+echo "bench: results in bench/results.md"
