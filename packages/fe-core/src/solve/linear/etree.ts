@@ -7,7 +7,7 @@
  * ancestor links, the counts by summing, over each row subtree, +1 at its leaves and −1 at the
  * least common ancestors of consecutive leaves and at the parent of its root.
  */
-import type { PermutedPattern } from './graph';
+import type { PatternView, PermutedPattern } from './graph';
 
 /** parent[j] of the elimination tree of P A Pᵀ (−1 for roots). */
 export function eliminationTree(n: number, pat: PermutedPattern): Int32Array {
@@ -69,10 +69,12 @@ export function postorder(parent: Int32Array): Int32Array {
 
 /**
  * Column counts of L (diagonal included) for a postordered elimination tree (every node's index
- * exceeds its descendants').
+ * exceeds its descendants'). The pattern is read through `view` (row j = view.rowOf[j]) when given.
  */
-export function columnCounts(n: number, pat: PermutedPattern, parent: Int32Array): Int32Array {
+export function columnCounts(n: number, pat: PermutedPattern, parent: Int32Array, view?: PatternView): Int32Array {
   const { ptr, idx } = pat;
+  const rowOf = view?.rowOf;
+  const map = view?.map;
   const delta = new Int32Array(n);
   const first = new Int32Array(n).fill(-1);
   for (let k = 0; k < n; k++) {
@@ -87,8 +89,9 @@ export function columnCounts(n: number, pat: PermutedPattern, parent: Int32Array
   for (let j = 0; j < n; j++) {
     if (parent[j] !== -1) delta[parent[j]]--;
     const fj = first[j];
-    for (let p = ptr[j]; p < ptr[j + 1]; p++) {
-      const i = idx[p];
+    const row = rowOf ? rowOf[j] : j;
+    for (let p = ptr[row]; p < ptr[row + 1]; p++) {
+      const i = map ? map[idx[p]] : idx[p];
       if (i <= j || fj <= maxfirst[i]) continue;
       // j is a leaf of row subtree i.
       maxfirst[i] = fj;

@@ -81,63 +81,39 @@ export function compressedGraph(A: CsrMatrix): CompressedGraph {
 
 /**
  * Neighbour lists of the symmetrically permuted matrix P A Pᵀ (diagonal excluded, unsorted):
- * neighbours of new index j are iperm[c] for the columns c of row perm[j]. `src` holds the value
- * index in A of entry (perm[j], c), so numeric code can find A's values without searching.
+ * neighbours of new index j are iperm[c] for the columns c of row perm[j].
  */
 export interface PermutedPattern {
   readonly ptr: Int32Array;
   readonly idx: Int32Array;
-  readonly src: Int32Array;
 }
 
 export function permutedPattern(A: CsrMatrix, perm: Int32Array, iperm: Int32Array): PermutedPattern {
   const n = A.n;
   const { rowPtr, colIdx } = A;
   const ptr = new Int32Array(n + 1);
-  for (let j = 0; j < n; j++) {
-    const o = perm[j];
-    ptr[j + 1] = ptr[j] + (rowPtr[o + 1] - rowPtr[o]);
-  }
-  const idx = new Int32Array(ptr[n]);
-  const src = new Int32Array(ptr[n]);
+  const idx = new Int32Array(rowPtr[n]);
   let e = 0;
   for (let j = 0; j < n; j++) {
     const o = perm[j];
     for (let p = rowPtr[o]; p < rowPtr[o + 1]; p++) {
       const i = iperm[colIdx[p]];
-      if (i === j) continue;
-      idx[e] = i;
-      src[e] = p;
-      e++;
+      if (i !== j) idx[e++] = i;
     }
     ptr[j + 1] = e;
   }
-  return { ptr, idx: idx.subarray(0, e), src: src.subarray(0, e) };
+  return { ptr, idx: idx.subarray(0, e) };
 }
 
 /**
- * The same pattern renumbered: new index k is old index order[k] (inew = inverse of order).
- * When order is close to the identity (a postorder of an already nested-dissection-ordered
- * matrix) this streams through memory, unlike permutedPattern, which jumps to A's rows at random.
+ * A pattern seen through a renumbering, without copying it: row j is pattern row rowOf[j] and
+ * its entries v read as map[v]. The analysis renumbers twice (postorder, then amalgamation); both
+ * orders are close to the identity, so reading through the view stays cache friendly.
  */
-export function relabelPattern(pat: PermutedPattern, order: Int32Array, inew: Int32Array): PermutedPattern {
-  const n = order.length;
-  const ptr = new Int32Array(n + 1);
-  for (let k = 0; k < n; k++) {
-    const o = order[k];
-    ptr[k + 1] = ptr[k] + (pat.ptr[o + 1] - pat.ptr[o]);
-  }
-  const idx = new Int32Array(ptr[n]);
-  const src = new Int32Array(ptr[n]);
-  for (let k = 0; k < n; k++) {
-    const o = order[k];
-    let e = ptr[k];
-    for (let p = pat.ptr[o]; p < pat.ptr[o + 1]; p++) {
-      idx[e] = inew[pat.idx[p]];
-      src[e++] = pat.src[p];
-    }
-  }
-  return { ptr, idx, src };
+export interface PatternView {
+  readonly pat: PermutedPattern;
+  readonly rowOf: Int32Array;
+  readonly map: Int32Array;
 }
 
 export function invertPermutation(perm: Int32Array): Int32Array {

@@ -9,9 +9,6 @@
  * edges: the padded positions receive −0 and are never read.
  */
 
-/** Panel width of the blocked partial factorisations. */
-export const PANEL = 32;
-
 /**
  * Packs the nr×kc block src[off + i + p·ld] into 4-row panels:
  * dst[(i>>2)·4kc + 4p + (i&3)], rows nr..⌈nr/4⌉·4−1 zero. Column p is multiplied by scale[p]
@@ -344,29 +341,64 @@ export function luFront(
 ): void {
   result.singular = -1;
   result.perturbed = 0;
-  for (let p0 = 0; p0 < k; p0 += PANEL) {
-    const p1 = Math.min(p0 + PANEL, k);
-    for (let j = p0; j < p1; j++) {
-      if (!luPivotStep(F, ld, m, k, j, p1, piv, floor, perturbation, result)) return;
-    }
+  const ctx: LuContext = { F, ld, m, k, piv, floor, perturbation, buf, result };
+  for (let p0 = 0; p0 < k; p0 += BLOCK) {
+    const p1 = Math.min(p0 + BLOCK, k);
+    if (!luRecursive(ctx, p0, p1)) return;
     const nr = m - p1;
     if (nr <= 0) continue;
-    const kc = p1 - p0;
-    // U12 rows of the panel: forward substitution with the panel's unit lower triangle.
-    for (let c = p1; c < m; c++) {
-      const cc = c * ld;
-      for (let j = p0; j < p1; j++) {
-        const t = F[cc + j];
-        if (t === 0) continue;
-        const cj = j * ld;
-        for (let i = j + 1; i < p1; i++) F[cc + i] -= F[cj + i] * t;
-      }
-    }
-    buf.ensure(nr, kc);
-    packRows(F, p1 + p0 * ld, ld, nr, kc, buf.a, null);
-    packCols(F, p0 + p1 * ld, ld, nr, kc, buf.b);
-    gemmPacked(buf.a, nr, buf.b, nr, kc, F, p1 + p1 * ld, ld);
+    luBlockUpdate(ctx, p0, p1, m);
   }
+}
+
+interface LuContext {
+  readonly F: Float64Array;
+  readonly ld: number;
+  readonly m: number;
+  readonly k: number;
+  readonly piv: Int32Array;
+  readonly floor: Float64Array;
+  readonly perturbation: Float64Array;
+  readonly buf: PackBuffers;
+  readonly result: LuFrontResult;
+}
+
+/** LU of columns a..b-1 (all rows below), which already carry every update from columns < a. */
+function luRecursive(c: LuContext, a: number, b: number): boolean {
+  if (b - a <= LEAF) {
+    for (let j = a; j < b; j++) {
+      if (!luPivotStep(c.F, c.ld, c.m, c.k, j, b, c.piv, c.floor, c.perturbation, c.result)) return false;
+    }
+    return true;
+  }
+  const mid = a + (((b - a) >> 1) & ~3);
+  if (!luRecursive(c, a, mid)) return false;
+  luBlockUpdate(c, a, mid, b);
+  return luRecursive(c, mid, b);
+}
+
+/**
+ * After columns a..mid-1 are factored: U rows a..mid-1 of columns mid..end-1 by forward
+ * substitution with the unit lower block, then F[mid:m, mid:end] −= L[mid:m, a:mid]·U[a:mid, mid:end].
+ */
+function luBlockUpdate(c: LuContext, a: number, mid: number, end: number): void {
+  const { F, ld, m, buf } = c;
+  for (let col = mid; col < end; col++) {
+    const cc = col * ld;
+    for (let j = a; j < mid; j++) {
+      const t = F[cc + j];
+      if (t === 0) continue;
+      const cj = j * ld;
+      for (let i = j + 1; i < mid; i++) F[cc + i] -= F[cj + i] * t;
+    }
+  }
+  const kc = mid - a;
+  const nr = m - mid;
+  const nc = end - mid;
+  buf.ensure(Math.max(nr, nc), kc);
+  packRows(F, mid + a * ld, ld, nr, kc, buf.a, null);
+  packCols(F, a + mid * ld, ld, nc, kc, buf.b);
+  gemmPacked(buf.a, nr, buf.b, nc, kc, F, mid + mid * ld, ld);
 }
 
 /** One column of the LU panel: pivot choice, row swap, scaling, update of the panel's later columns. */

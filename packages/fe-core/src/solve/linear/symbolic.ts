@@ -9,7 +9,7 @@
  * pay for it once.
  */
 import { columnCounts, eliminationTree, postorder } from './etree';
-import { invertPermutation, permutedPattern, relabelPattern, type PermutedPattern } from './graph';
+import { invertPermutation, permutedPattern, type PatternView } from './graph';
 import { nestedDissectionOrder, type OrderingOptions } from './ordering';
 import type { CsrMatrix } from './types';
 
@@ -59,8 +59,6 @@ export interface SupernodalSymbolic {
   readonly flops: number;
   /** Entries of the lower trapezoids actually stored (amalgamation zeros included). */
   readonly storedEntries: number;
-  /** Neighbour lists of P A Pᵀ in the final numbering. */
-  readonly pattern: PermutedPattern;
   /** Front position of each child's off-diagonal rows inside its parent's front (parallel to rowIdx). */
   readonly relIdx: Int32Array;
 }
@@ -81,8 +79,7 @@ export function analyseSymbolic(A: CsrMatrix, options: SymbolicOptions = {}): Su
     const p = parent0[post[k]];
     parent1[k] = p === -1 ? -1 : ipost[p];
   }
-  const pat1 = relabelPattern(pat0, post, ipost);
-  const cc = columnCounts(n, pat1, parent1);
+  const cc = columnCounts(n, pat0, parent1, { pat: pat0, rowOf: post, map: ipost });
   let nnzL = 0;
   let flops = 0;
   for (let j = 0; j < n; j++) {
@@ -94,11 +91,14 @@ export function analyseSymbolic(A: CsrMatrix, options: SymbolicOptions = {}): Su
   const perm = new Int32Array(n);
   for (let k = 0; k < n; k++) perm[k] = perm1[order[k]];
   const iperm = invertPermutation(perm);
-  const pattern = relabelPattern(pat1, order, invertPermutation(order));
+  // Final numbering seen from pat0: row k is pat0 row post[order[k]].
+  const rowOf = new Int32Array(n);
+  for (let k = 0; k < n; k++) rowOf[k] = post[order[k]];
+  const view: PatternView = { pat: pat0, rowOf, map: invertPermutation(rowOf) };
   const nsuper = groupWidth.length;
   const superStart = new Int32Array(nsuper + 1);
   for (let s = 0; s < nsuper; s++) superStart[s + 1] = superStart[s] + groupWidth[s];
-  const rows = rowStructures(n, pattern, superStart);
+  const rows = rowStructures(n, view, superStart);
   const tree = supernodalTree(superStart, rows.rowStart, rows.rowIdx);
   let stored = 0;
   for (let s = 0; s < nsuper; s++) {
@@ -121,7 +121,6 @@ export function analyseSymbolic(A: CsrMatrix, options: SymbolicOptions = {}): Su
     nnzL,
     flops,
     storedEntries: stored,
-    pattern,
     relIdx,
   };
 }
@@ -250,7 +249,7 @@ function relaxAccepts(relax: RelaxOptions, width: number, zeroFraction: number):
  */
 function rowStructures(
   n: number,
-  pat: PermutedPattern,
+  view: PatternView,
   superStart: Int32Array,
 ): { rowStart: Int32Array; rowIdx: Int32Array } {
   const ns = superStart.length - 1;
@@ -264,14 +263,16 @@ function rowStructures(
   const childNext = new Int32Array(ns).fill(-1);
   let total = 0;
   let store = new Int32Array(Math.max(16, 4 * n));
-  const { ptr, idx } = pat;
+  const { ptr, idx } = view.pat;
+  const { rowOf, map } = view;
   for (let s = 0; s < ns; s++) {
     const f = superStart[s];
     const end = superStart[s + 1];
     let cnt = 0;
     for (let j = f; j < end; j++) {
-      for (let p = ptr[j]; p < ptr[j + 1]; p++) {
-        const i = idx[p];
+      const row = rowOf[j];
+      for (let p = ptr[row]; p < ptr[row + 1]; p++) {
+        const i = map[idx[p]];
         if (i >= end && tag[i] !== s) {
           tag[i] = s;
           buf[cnt++] = i;
