@@ -405,3 +405,25 @@ describe('Lagoudas 2012 with J2 plastic strain (yield stress mixed by ξ)', () =
     }
   });
 });
+
+describe('Lagoudas 2012: forward and reverse both triggered by one non-proportional increment', () => {
+  it('reverts part of the tension variants and forms shear ones in one increment', () => {
+    const m = createLagoudas2012(L2);
+    const T = 45;
+    const tension = Float64Array.from([1, -0.5, -0.5, 0, 0, 0], (x) => x * 0.03);
+    const shear = Float64Array.from([0, 0, 0, 0, 0, Math.SQRT2 * 0.026]);
+    const old = new Float64Array(LAGOUDAS2012_STATE_SIZE);
+    m.initState(old, 0, T);
+    const mid = new Float64Array(LAGOUDAS2012_STATE_SIZE);
+    const out = createMaterialPointOutput();
+    m.update({ strain: tension, strainOld: new Float64Array(6), temperature: T, temperatureOld: T }, old, 0, mid, 0, out);
+    expect(mid[6]).toBeGreaterThan(0.2);
+    const end = new Float64Array(LAGOUDAS2012_STATE_SIZE);
+    m.update({ strain: shear, strainOld: tension, temperature: T, temperatureOld: T }, mid, 0, end, 0, out);
+    expect(out.ok, out.message).toBe(true);
+    expect(end[0]).toBeLessThan(0.5 * mid[0]);
+    expect(Math.abs(end[5])).toBeGreaterThan(2 * Math.abs(end[0]));
+    // reversal memory = εᵗ after the forward phase
+    for (let i = 0; i < 6; i++) expect(end[7 + i]).toBe(end[i]);
+  });
+});

@@ -46,6 +46,7 @@ const SMOOTH = 1e-5;
 const SQ32 = Math.sqrt(1.5);
 const MAX_OUTER = 200;
 const MAX_INNER = 100;
+const MAX_PHASES = 1;
 
 function pw(x: number, n: number): number {
   if (x <= 0) return 0;
@@ -523,18 +524,26 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       } else first = this.trial.fwd > tol ? 'forward' : 'reverse';
       transforming = this.runPhase(first);
       mode = first;
-      const second: Direction = first === 'forward' ? 'reverse' : 'forward';
-      const allowed = second === 'forward' ? this.xiB < 1 : this.xiB > 0;
-      if (allowed) {
+      // The other direction may be driven at the end of this phase (a reverse that completes
+      // before forward starts, or a non-proportional increment that reverts some variants and
+      // forms others): run it from the end of this phase (a forward phase refreshes the reversal
+      // memory). MAX_PHASES bounds further alternation: under strongly non-proportional loading
+      // the model chatters between the two directions (it has no simultaneous forward/reverse
+      // mode; more alternations do not converge quickly), so the remaining violation is left to
+      // the next increment instead of failing this one, and the tangent is the last phase's.
+      let next: Direction = first === 'forward' ? 'reverse' : 'forward';
+      for (let k = 0; k < MAX_PHASES; k++) {
+        const allowed = next === 'forward' ? this.xiB < 1 : this.xiB > 0;
+        if (!allowed) break;
         let phi2: number;
-        if (second === 'reverse') {
+        if (next === 'reverse') {
           this.setReverseDirection();
           phi2 = this.evalReverse(this.xiB, false);
         } else phi2 = this.evalForward(this.xiB, false);
-        if (phi2 > tol) {
-          transforming = this.runPhase(second);
-          mode = second;
-        }
+        if (!(phi2 > tol)) break;
+        transforming = this.runPhase(next);
+        mode = next;
+        next = next === 'forward' ? 'reverse' : 'forward';
       }
       // re-evaluate at the end state of the last phase for stress and tangent
       this.reevaluateEnd(mode);
