@@ -96,3 +96,35 @@ write('cantilever-plane-stress.json', {
   segments: [{ name: 'load', targets: { shear: 10 }, increments: { initial: 1, min: 0.01, max: 1 } }],
   output: { fields: ['displacement', 'reaction', 'stress', 'vonMises'], points: [{ name: 'tip', x: 100, y: 5 }], reactionSums: [{ name: 'wall', set: 'left' }] },
 });
+
+// Superelastic NiTi strip at body temperature (demo values, not a real alloy's data): pulled to
+// 6 % strain by a prescribed end displacement and released (Lagoudas 2012, plane stress, Q4-EAS).
+const coupon = rectangle({ width: 20, height: 2, nx: 10, ny: 2 }, { type: 'q4-eas', section: 'sheet', material: 'demoNiTi' });
+write('superelastic-strip.json', {
+  format: 'phaseloop-model/1',
+  title: 'Superelastic NiTi strip at 37 °C, pulled to 6 % and released (demo material values)',
+  ...coupon,
+  nodeSets: { ...coupon.nodeSets, origin: [1] },
+  sections: { sheet: { kind: 'continuum', analysis: 'planeStress', thickness: 0.5 } },
+  materials: {
+    demoNiTi: {
+      model: 'lagoudas2012', E_A: 60000, E_M: 40000, nu: 0.33, Ms0: 18, Mf0: 2, As0: 22, Af0: 38, C_M: 6.5, C_A: 8,
+      sigma_star: 200, H_min: 0.04, H_sat: 0.045, k_t: 0.01, n1: 0.5, n2: 0.5, n3: 0.5, n4: 0.5,
+    },
+  },
+  supports: [
+    { type: 'fixed', set: 'left', dofs: ['ux'] },
+    { type: 'fixed', set: 'origin', dofs: ['uy'] },
+  ],
+  loads: [{ type: 'displacement', name: 'stretch', set: 'right', dof: 'ux' }],
+  initialTemperature: 37,
+  segments: [
+    { name: 'load', duration: 1, targets: { stretch: 1.2 }, increments: { initial: 0.02, min: 1e-4, max: 0.04 } },
+    { name: 'unload', duration: 1, targets: { stretch: 0 }, increments: { initial: 0.02, min: 1e-4, max: 0.04 } },
+  ],
+  output: {
+    fields: ['displacement', 'reaction', 'stress', 'strain', 'vonMises', 'martensiteFraction', 'transformationStrain'],
+    points: [{ name: 'middle', x: 10, y: 1 }],
+    reactionSums: [{ name: 'grip', set: 'left' }],
+  },
+});
