@@ -122,14 +122,20 @@ export function runAnalysis(problem: Problem, options: AnalysisOptions = {}): An
   }
 }
 
-/** Runs the analysis, yielding to the event loop every `every` iterations (cancel, progress). */
-export async function runAnalysisAsync(problem: Problem, options: AnalysisOptions = {}, every = 1): Promise<AnalysisResult> {
+/**
+ * Runs the analysis, yielding to the event loop at most every `yieldMs` milliseconds of work
+ * (between iterations), so progress events go out and a cancel request is seen by shouldStop().
+ */
+export async function runAnalysisAsync(problem: Problem, options: AnalysisOptions = {}, yieldMs = 20): Promise<AnalysisResult> {
   const gen = analysisSteps(problem, options);
-  let k = 0;
+  let last = performance.now();
   for (;;) {
     const next = gen.next();
     if (next.done) return next.value;
-    if (++k % every === 0) await new Promise<void>((resolve) => setTimeout(resolve, 0));
+    if (performance.now() - last >= yieldMs) {
+      await new Promise<void>((resolve) => setTimeout(resolve, 0));
+      last = performance.now();
+    }
   }
 }
 
