@@ -113,6 +113,14 @@ describe('nonlinear driver', () => {
     expect(yields).toBe(sync.stats.iterations);
   });
 
+  it('async: a cancel request arriving from the event loop stops the run between iterations', async () => {
+    let stop = false;
+    setTimeout(() => (stop = true), 0);
+    const result = await runAnalysisAsync(problemOf(strip()), { shouldStop: () => stop }, 0);
+    expect(result.status).toBe('cancelled');
+    expect(result.frames.length).toBeLessThan(8);
+  });
+
   it('names the node and direction of an unconstrained model', () => {
     // Only u_x held: the strip can slide in y.
     const result = runAnalysis(problemOf(strip({ supports: [{ type: 'fixed', set: 'left', dofs: ['ux'] }] })));
