@@ -160,11 +160,22 @@ static double eval_reverse(LagWork *w, double xi, int deriv) {
   const LagParams *p = w->p;
   double dxi = xi - w->xiB, s = 1 / p->E_A + xi * p->dS;
   w->sC = s;
-  w->aC = w->bC = s * (1 + p->nu);
-  memset(w->nhat, 0, sizeof w->nhat);
+  double c = s * (1 + p->nu);
+  w->aC = w->bC = c;
   known_strain(w, xi);
-  for (int i = 0; i < 6; i++) w->estar[i] -= dxi * w->lamR[i];
-  apply_xi(w, w->estar, w->sig);
+  double *e = w->estar;
+  for (int i = 0; i < 6; i++) e[i] -= dxi * w->lamR[i];
+  /* σ' ∥ deviator of the known strain (radial form, as in the TypeScript; no plasticity here) */
+  double tr = e[0] + e[1] + e[2], m = tr / 3, nn = 0;
+  for (int i = 0; i < 6; i++) {
+    double d = i < 3 ? e[i] - m : e[i];
+    w->nhat[i] = d;
+    nn += d * d;
+  }
+  double enorm = sqrt(nn);
+  for (int i = 0; i < 6; i++) w->nhat[i] = enorm > 0 ? w->nhat[i] / enorm : 0;
+  double sbar = sqrt(1.5) * enorm / c, dev = sqrt(2.0 / 3.0) * sbar, pm = tr / (3 * s * (1 - 2 * p->nu));
+  for (int i = 0; i < 6; i++) w->sig[i] = dev * w->nhat[i] + (i < 3 ? pm : 0);
   double dT = w->temp - p->T_ref, trs = w->sig[0] + w->sig[1] + w->sig[2], sl = 0;
   for (int i = 0; i < 6; i++) sl += w->sig[i] * w->lamR[i];
   double phi = -(1 + p->D) * sl - 0.5 * p->dS * sPs(w) - p->dAlpha * dT * trs - p->rhoDs0 * w->temp + p->rhoDu0 + f_rev(p, xi) - p->Y0;

@@ -209,7 +209,7 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
     let ss = 0;
     let sn = 0;
     for (let i = 0; i < 6; i++) {
-      const ei = i < 3 ? eps[i] - m : eps[i];
+      const ei = eps[i] - (i < 3 ? m : 0);
       const x = stateOld[oldOffset + i];
       const si = G2 * (ei - x);
       e[i] = ei;
