@@ -44,7 +44,7 @@ export default defineConfig({
     locale: 'en-GB',
     timezoneId: 'UTC',
     screenshot: 'only-on-failure',
-    trace: 'retain-on-failure',
+    trace: process.env.E2E_TRACE === '1' ? 'retain-on-failure' : 'off',
     launchOptions: {
       executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
       args: [
