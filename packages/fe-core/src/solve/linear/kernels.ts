@@ -87,16 +87,14 @@ export function kernel4x4(
   let c01 = 0, c11 = 0, c21 = 0, c31 = 0;
   let c02 = 0, c12 = 0, c22 = 0, c32 = 0;
   let c03 = 0, c13 = 0, c23 = 0, c33 = 0;
-  for (let p = 0; p < kc; p++) {
+  const end = ao + 4 * kc;
+  while (ao < end) {
     const a0 = A[ao], a1 = A[ao + 1], a2 = A[ao + 2], a3 = A[ao + 3];
-    let b = B[bo];
-    c00 += a0 * b; c10 += a1 * b; c20 += a2 * b; c30 += a3 * b;
-    b = B[bo + 1];
-    c01 += a0 * b; c11 += a1 * b; c21 += a2 * b; c31 += a3 * b;
-    b = B[bo + 2];
-    c02 += a0 * b; c12 += a1 * b; c22 += a2 * b; c32 += a3 * b;
-    b = B[bo + 3];
-    c03 += a0 * b; c13 += a1 * b; c23 += a2 * b; c33 += a3 * b;
+    const b0 = B[bo], b1 = B[bo + 1], b2 = B[bo + 2], b3 = B[bo + 3];
+    c00 += a0 * b0; c10 += a1 * b0; c20 += a2 * b0; c30 += a3 * b0;
+    c01 += a0 * b1; c11 += a1 * b1; c21 += a2 * b1; c31 += a3 * b1;
+    c02 += a0 * b2; c12 += a1 * b2; c22 += a2 * b2; c32 += a3 * b2;
+    c03 += a0 * b3; c13 += a1 * b3; c23 += a2 * b3; c33 += a3 * b3;
     ao += 4;
     bo += 4;
   }
@@ -232,7 +230,7 @@ function ldltRecursive(
   buf: PackBuffers,
 ): number {
   if (b - a <= LEAF) return ldltPanel(F, ld, m, a, b, floor);
-  const mid = a + (((b - a) >> 1) & ~3);
+  const mid = a + Math.max(4, ((b - a) >> 1) & ~3); // a multiple of 4 past a, LEAF ≥ 4 keeps it below b
   const bad = ldltRecursive(F, ld, m, a, mid, floor, buf);
   if (bad >= 0) return bad;
   // Columns mid..b-1, rows mid..m-1 −= L[mid:m, a:mid]·D·L[mid:b, a:mid]ᵀ.
@@ -371,7 +369,7 @@ function luRecursive(c: LuContext, a: number, b: number): boolean {
     }
     return true;
   }
-  const mid = a + (((b - a) >> 1) & ~3);
+  const mid = a + Math.max(4, ((b - a) >> 1) & ~3); // a multiple of 4 past a, LEAF ≥ 4 keeps it below b
   if (!luRecursive(c, a, mid)) return false;
   luBlockUpdate(c, a, mid, b);
   return luRecursive(c, mid, b);
