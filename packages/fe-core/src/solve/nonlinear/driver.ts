@@ -216,7 +216,6 @@ class Driver {
     const segments = this.problem.model.segments;
     // Frame 0: the unloaded initial state (stresses from the initial evaluation, normally zero).
     this.evaluate(true);
-    this.tangentFresh = true;
     this.emitFrame(0, 0, 0, 0);
     let time = 0;
     for (let s = 0; s < segments.length; s++) {
@@ -352,7 +351,6 @@ class Driver {
     const { forceTolerance, displacementTolerance, lineSearch } = this.problem.model.solver;
     if (this.options.predictor !== false && this.nEq > 0) this.predict(fraction);
     else this.applyLoads(fraction);
-    this.tangentFresh = false;
     const { freeDofs } = this.asm.numbering;
     let correction = Number.NaN;
     let firstResidual = 0;
@@ -405,18 +403,18 @@ class Driver {
   }
 
   /**
-   * Predictor: the first correction of the increment from the converged state's tangent,
+   * Predictor: the first correction of the increment from the tangent at the converged state
+   * (evaluated for a zero strain increment, so a load reversal sees the elastic unloading
+   * stiffness rather than the transforming or yielding one of the last iteration),
    *   K_ff du_f = f_ext,f(new) − f_int,f(converged) − K_fp Δu_p,
    * so a step of prescribed displacement spreads over the whole body (as the linear response
    * would) instead of straining only the elements at the boundary in the first iterate.
    */
   private predict(fraction: number): void {
     const { freeDofs, prescribed } = this.asm.numbering;
-    if (!this.tangentFresh) {
-      // After a cut-back the assembled tangent belongs to a failed iterate: rebuild it.
-      this.evaluate(true);
-      if (!this.status.ok) throw new IncrementFailure('material', `material point in element ${this.status.element} failed at the converged state (${this.status.message})`);
-    }
+    // u = uOld and T = TOld here (after a commit or a cut-back).
+    this.evaluate(true);
+    if (!this.status.ok) throw new IncrementFailure('material', `material point in element ${this.status.element} failed at the converged state (${this.status.message})`);
     const fintOld = this.predictorFint;
     for (let k = 0; k < this.nEq; k++) fintOld[k] = this.asm.fint[freeDofs[k]];
     this.applyLoads(fraction);
@@ -543,7 +541,6 @@ class Driver {
 
   private commitIncrement(): void {
     this.anyConverged = true;
-    this.tangentFresh = true;
     this.startScale = this.lastScale;
     // The trial state of the last (converged) evaluation becomes the converged state.
     const tmp = this.stateOld;
@@ -596,8 +593,6 @@ class Driver {
   }
 
   private frameCount = 0;
-  /** Whether the assembled tangent and fint belong to the converged state (after a commit). */
-  private tangentFresh = false;
 
   private finish(status: AnalysisResult['status'], failure?: AnalysisFailure): AnalysisResult {
     if (status === 'cancelled') {
