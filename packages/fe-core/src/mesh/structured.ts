@@ -109,6 +109,13 @@ class NodeTable {
   private readonly index = new Map<string, number>();
   constructor(private readonly tolerance: number) {}
 
+  /** A node known to be new (interior of a block): no lookup, not registered for merging. */
+  push(x: number, y: number): number {
+    const id = this.nodes.length + 1;
+    this.nodes.push({ id, x, y });
+    return id;
+  }
+
   add(x: number, y: number): number {
     const key = this.key(x, y);
     const found = this.index.get(key);
@@ -173,7 +180,9 @@ function meshOneBlock(block: Block, options: MeshOptions, table: NodeTable, part
         continue;
       }
       const [x, y] = coons(block, param(gx, i, mx), param(gy, j, my));
-      column.push(table.add(x, y));
+      // Only nodes on the block's boundary can coincide with another block's.
+      const onBoundary = i === 0 || j === 0 || i === mx || j === my;
+      column.push(onBoundary ? table.add(x, y) : table.push(x, y));
     }
     grid.push(column);
   }
