@@ -29,3 +29,5 @@ if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) 
     process.exit(1);
   });
 }
+export { createFeCoreSolver, snapshotModel, FE_SOLVER_LABEL } from './fe-solver';
+export { resultStoreFromEnv, pgResultStore, s3ResultStore, s3SettingsFromEnv, type ResultStore, type S3Settings } from './result-store';

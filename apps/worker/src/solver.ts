@@ -26,6 +26,8 @@ export interface FrameReport {
   increment: number;
   time: number;
   history: Record<string, number>;
+  /** Small scalar summary of the frame's fields (max von Mises, max martensite fraction). */
+  summary?: { maxVonMises: number; maxXi: number };
   /** Result files of this frame (e.g. a VTU piece), written to the run's storage. */
   files?: { name: string; contentType: string; bytes: Uint8Array }[];
 }
@@ -34,13 +36,18 @@ export interface SolveHooks {
   onIteration(report: IterationReport): void;
   onFrame(report: FrameReport): Promise<void>;
   shouldStop(): boolean;
+  /** Graceful shutdown: stop once the increment in progress has converged. */
+  shouldStopAfterIncrement?(): boolean;
+  onLog?(level: 'info' | 'warn' | 'error', message: string): void;
 }
+
+export interface OutputFile { name: string; contentType: string; bytes: Uint8Array }
 
 export type SolveOutcome =
   | { kind: 'succeeded'; message: string; files?: { name: string; contentType: string; bytes: Uint8Array }[] }
-  | { kind: 'failed'; message: string }
+  | { kind: 'failed'; message: string; files?: OutputFile[] }
   /** shouldStop() turned true and the solver stopped between iterations. */
-  | { kind: 'stopped'; message: string };
+  | { kind: 'stopped'; message: string; files?: OutputFile[] };
 
 export interface RunSolver {
   solve(snapshot: RunSnapshotForSolver, hooks: SolveHooks): Promise<SolveOutcome>;

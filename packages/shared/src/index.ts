@@ -2,3 +2,5 @@ export * from './materials';
 export * from './runs';
 export * from './model';
 export * from './materialPoint';
+export * from './studies';
+export * from './templates';

@@ -24,6 +24,13 @@ export const SOLVE_QUEUE = 'phaseloop-solve';
  */
 export const SOLVE_QUEUE_POLICY = { retryLimit: 0, expireInSeconds: 23 * 3600 } as const;
 
+/** A run whose worker stopped answering is restarted from the beginning this many times in all. */
+export const RUN_MAX_ATTEMPTS = 3;
+/** A worker whose heartbeat is older than this is taken for dead (its run is restarted). */
+export const WORKER_STALE_SECONDS = 30;
+/** A run still running after this long is failed as stuck. */
+export const RUN_MAX_SECONDS = 6 * 3600;
+
 /** The job payload is only the run id: the frozen snapshot is read from the database. */
 export const solveJobSchema = z.object({ runId: z.string().uuid() });
 export type SolveJob = z.infer<typeof solveJobSchema>;
@@ -79,6 +86,9 @@ export const runFrameEventSchema = z.object({
   time: z.number(),
   /** Small scalar history values (e.g. reaction force, probe displacement, temperature). */
   history: z.record(z.string(), z.number()),
+  /** Largest von Mises stress (MPa) and martensite fraction ξ over the integration points. */
+  maxVonMises: z.number().optional(),
+  maxXi: z.number().optional(),
 });
 export type RunFrameEvent = z.infer<typeof runFrameEventSchema>;
 

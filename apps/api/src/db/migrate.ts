@@ -5,11 +5,12 @@
 import pg from 'pg';
 import { Umzug, type RunnableMigration } from 'umzug';
 import { initialSchema } from './migrations/0001-initial';
+import { runsQueueSchema } from './migrations/0002-runs-queue';
 
 export type Sql = (text: string, values?: unknown[]) => Promise<pg.QueryResult>;
 export type Migration = RunnableMigration<Sql>;
 
-export const MIGRATIONS: Migration[] = [initialSchema];
+export const MIGRATIONS: Migration[] = [initialSchema, runsQueueSchema];
 
 /** Arbitrary constant shared by every Phaseloop process that migrates. */
 const MIGRATION_LOCK = 7_384_114;
