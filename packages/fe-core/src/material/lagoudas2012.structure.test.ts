@@ -93,8 +93,7 @@ describe('Lagoudas 2012 in a plane-stress strip: structure = material point', ()
         }),
       );
       expectSucceeded(result);
-      // (cut-backs come from the driver's first iterate, which moves only the loaded edge)
-      expect(cutBacks).toBeLessThan(20);
+      expect(cutBacks).toBeLessThanOrEqual(2);
       // Replay the same strain increments at one material point.
       const strains = result.frames.map((f) => f.history['tip.ux'] / L);
       const mp = runMaterialPoint(createLagoudas2012(ALLOY), {
@@ -187,15 +186,12 @@ describe('Lagoudas 2012 in structures: full loops with quadratic Newton converge
     });
   }
 
-  // Force control: the driver's first iterate under a prescribed mid-span deflection moves only
-  // that node, which localises the curvature next to it and makes Newton cycle between elastic
-  // and transforming fibres; under force control the first iterate is the tangent solution.
   it('fibre beam (wire) in three-point bending: pseudoelastic load–unload at 37 °C', () => {
     const span = 20;
     const mesh = line({ from: [0, 0], to: [span, 0], n: 16 }, { type: 'beam2', section: 'wire', material: 'niti' });
     const mid = mesh.nodes.find((n) => Math.abs(n.x - span / 2) < 1e-9)!.id;
     const d = 0.5;
-    const { result, sequences } = solve({
+    const { result, sequences, cutBacks } = solve({
       format: 'phaseloop-model/1',
       ...mesh,
       nodeSets: { ...mesh.nodeSets, mid: [mid] },
@@ -206,40 +202,40 @@ describe('Lagoudas 2012 in structures: full loops with quadratic Newton converge
         { type: 'fixed', set: 'start', dofs: ['ux', 'uy'] },
         { type: 'fixed', set: 'end', dofs: ['uy'] },
       ],
-      loads: [{ type: 'force', name: 'press', set: 'mid', dof: 'fy' }],
+      loads: [{ type: 'displacement', name: 'press', set: 'mid', dof: 'uy' }],
       segments: [
-        { name: 'load', targets: { press: -1.0 }, increments: { initial: 0.025, min: 0.001, max: 0.025 } },
+        { name: 'load', targets: { press: -2 }, increments: { initial: 0.025, min: 0.001, max: 0.025 } },
         { name: 'unload', targets: { press: 0 }, increments: { initial: 0.025, min: 0.001, max: 0.025 } },
       ],
-      output: { fields: ['displacement', 'reaction', 'martensiteFraction'], points: [{ name: 'mid', x: span / 2, y: 0 }], reactionSums: [{ name: 'ends', set: 'start' }] },
+      output: { fields: ['displacement', 'reaction', 'martensiteFraction'], points: [], reactionSums: [{ name: 'mid', set: 'mid' }, { name: 'ends', set: 'start' }] },
       solver: { forceTolerance: 1e-9, displacementTolerance: 1e-9, lineSearch: false },
     });
     expectSucceeded(result);
+    expect(cutBacks).toBeLessThanOrEqual(2);
     const peak = result.frames.reduce((a, f) => Math.max(a, ...Array.from(f.pointXi)), 0);
     expect(peak).toBeGreaterThan(0.3);
     expect(Math.max(...Array.from(result.frames.at(-1)!.pointXi))).toBe(0);
-    // Full pseudoelastic recovery: no deflection left at zero load; hysteresis: at half the load
-    // the deflection on unloading exceeds the one on loading.
-    expect(Math.abs(result.frames.at(-1)!.history['mid.uy'])).toBeLessThan(1e-9);
-    const half = result.frames.filter((f) => Math.abs(f.history['ends.Fy'] - 0.25) < 1e-9);
+    // Full pseudoelastic recovery: no force left at zero deflection; hysteresis: at half the
+    // deflection the force on unloading is below the one on loading; equilibrium at every frame.
+    expect(Math.abs(result.frames.at(-1)!.history['mid.Fy'])).toBeLessThan(1e-7);
+    const half = result.frames.filter((f) => Math.abs(f.time - 0.5) < 1e-9 || Math.abs(f.time - 1.5) < 1e-9);
     expect(half).toHaveLength(2);
-    expect(Math.abs(half[1].history['mid.uy'])).toBeGreaterThan(Math.abs(half[0].history['mid.uy']) * 1.05);
-    // Equilibrium: each support carries half the load.
-    for (const f of result.frames) expect(Math.abs(f.history['ends.Fy'] - 1.0 * (f.time <= 1 ? f.time : 2 - f.time) / 2)).toBeLessThan(1e-9);
+    expect(Math.abs(half[1].history['mid.Fy'])).toBeLessThan(0.95 * Math.abs(half[0].history['mid.Fy']));
+    for (const f of result.frames) expect(Math.abs(f.history['mid.Fy'] + 2 * f.history['ends.Fy'])).toBeLessThan(1e-9 * Math.max(1, Math.abs(f.history['mid.Fy'])));
     // Convergence is fast enough that round-off is reached one step after the asymptotic range,
-    // so the order cannot be fitted; check the quadratic bound r_{k+1} ≤ C r_k² instead.
-    let worstC = 0;
-    let transforming = 0;
+    // so the order cannot be fitted; check the quadratic bound r_{k+1} ≤ C r_k² instead (median
+    // over all Newton steps below 2 % residual; a step in which fibres switch branch, elastic ↔
+    // transforming, may exceed it, but only a few may).
+    const ratios: number[] = [];
     for (const r of sequences) {
       for (let k = 1; k + 1 < r.length; k++) {
-        if (r[k] < 0.05 && r[k + 1] > 1e-11) {
-          worstC = Math.max(worstC, r[k + 1] / (r[k] * r[k]));
-          transforming++;
-        }
+        if (r[k] < 0.02 && r[k + 1] > 1e-11) ratios.push(r[k + 1] / (r[k] * r[k]));
       }
     }
-    expect(transforming).toBeGreaterThan(5);
-    assertCheck({ suite: SUITE, name: 'fibre beam three-point bending: max r_{k+1}/r_k² over Newton steps (≤ 10: quadratic)', computed: worstC, target: 0, unit: '–', tolerance: 10, absolute: true, source: 'quadratic convergence of Newton with the consistent tangent (Simo & Hughes 1998, Computational Inelasticity)' });
+    ratios.sort((a, b) => a - b);
+    expect(ratios.length).toBeGreaterThan(5);
+    expect(ratios.filter((c) => c > 10).length).toBeLessThanOrEqual(Math.ceil(0.1 * ratios.length));
+    assertCheck({ suite: SUITE, name: 'fibre beam three-point bending: median r_{k+1}/r_k² over Newton steps (≤ 10: quadratic)', computed: ratios[Math.floor(ratios.length / 2)], target: 0, unit: '–', tolerance: 10, absolute: true, source: 'quadratic convergence of Newton with the consistent tangent (Simo & Hughes 1998, Computational Inelasticity)' });
     expect(Math.max(...sequences.map((r) => r.length))).toBeLessThanOrEqual(6);
   });
 });
