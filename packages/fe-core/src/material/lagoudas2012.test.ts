@@ -226,6 +226,29 @@ describe('Lagoudas 2012: isobaric cooling and heating under load', () => {
     expect(Math.abs(heat.at(-1)!.strain - cool[0].strain)).toBeLessThan(1e-12);
   });
 
+  it('large temperature steps (5 K): ξ(T) exact at every increment, completion detected at the bound (no clamping)', () => {
+    const sigma = 150;
+    const Ms = L1.Ms0 + sigma / L1.C_M;
+    const Mf = L1.Mf0 + sigma / L1.C_M;
+    const As = L1.As0 + sigma / L1.C_A;
+    const Af = L1.Af0 + sigma / L1.C_A;
+    const r = runMaterialPoint(createLagoudas2012(L1), {
+      control: 'stress',
+      path: [
+        { value: 0, temperature: 77 },
+        { value: sigma, temperature: 77, increments: 5 },
+        { value: sigma, temperature: -3, increments: 16 },
+        { value: sigma, temperature: 77, increments: 16 },
+      ],
+    });
+    expect(r.ok, r.message).toBe(true);
+    const clamp = (x: number) => Math.min(1, Math.max(0, x));
+    let worst = 0;
+    for (const row of legRows(r.rows, 2)) worst = Math.max(worst, Math.abs(row.xi - clamp((Ms - row.temperature) / (Ms - Mf))));
+    for (const row of legRows(r.rows, 3)) worst = Math.max(worst, Math.abs(row.xi - clamp((Af - row.temperature) / (Af - As))));
+    assertCheck({ suite: SUITE, name: 'isobaric 150 MPa in 5 K steps: max |ξ − ξ_closed(T)| over all increments', computed: worst, target: 0, unit: '-', tolerance: 1e-6, absolute: true, source: UNIAXIAL });
+  });
+
   it('E_A ≠ E_M and stress-dependent H: lines solve (1∓D)σH_cur(σ) + ½ΔSσ² = −ρΔs0(T − T0), jump H_cur(σ) + σΔS', () => {
     const sigma = 180;
     const r = isobaric(L2, sigma, 90, -20, 10);
