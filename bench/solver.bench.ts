@@ -116,7 +116,9 @@ function runCase(nx: number, mode: 'ldlt' | 'lu', bin: string | null): OurResult
   const ta = minTime(REPS, () => solver.analyse(A, opts));
   const tf = minTime(REPS, () => solver.factor(A));
   const x = new Float64Array(A.n);
-  solver.solve(P.b, x); // warm-up: the solve is compiled on its first call, then runs every Newton iteration
+  // Warm-up: the solve is compiled on its first calls (optimised code arrives from a background
+  // thread), and it then runs in every Newton iteration.
+  for (let w = 0; w < 3; w++) solver.solve(P.b, x);
   const ts = minTime(REPS, () => solver.solve(P.b, x));
   const r = csrResidual(A, x, P.b, new Float64Array(A.n));
   const st = solver.stats();
@@ -187,6 +189,19 @@ const fmt = (s: number): string => (s >= 1 ? s.toFixed(2) : s >= 0.1 ? s.toFixed
 const mega = (v: number): string => `${(v / 1e6).toFixed(2)}M`;
 const ratio = (a: number, b: number | undefined): string => (b ? `${(a / b).toFixed(2)}×` : '–');
 
+/** Which BLAS CHOLMOD's supernodal kernels run on (Debian's reference BLAS is several times slower). */
+function blasInUse(): string {
+  try {
+    const res = spawnSync('readlink', ['-f', '/usr/lib/x86_64-linux-gnu/libblas.so.3'], { encoding: 'utf8' });
+    const path = res.stdout.trim();
+    if (path.includes('openblas')) return `OpenBLAS (${path})`;
+    if (path) return `reference BLAS (${path}): install libopenblas0-serial for the anchors' configuration`;
+  } catch {
+    // not Debian-like
+  }
+  return 'unknown BLAS';
+}
+
 function main(): void {
   const sizes = (process.env.SOLVER_BENCH_SIZES ?? '100,223,447').split(',').map(Number);
   const dir = join(tmpdir(), 'phaseloop-bench');
@@ -236,9 +251,9 @@ function main(): void {
   const body = [
     '## Sparse direct solver (packages/fe-core/src/solve/linear)',
     '',
-    `Run ${machineLine(machine)}. Plane-stress Q4 unit square, E = 70000, ν = 0.33, clamped at x = 0, ` +
+    `Run ${machineLine(machine)}. CHOLMOD BLAS: ${blasInUse()}. Plane-stress Q4 unit square, E = 70000, ν = 0.33, clamped at x = 0, ` +
       'edge load at x = 1. Ours: nested dissection on coordinates + multifrontal supernodal LDLᵀ, single ' +
-      'thread. CHOLMOD: supernodal, METIS, single thread, same matrix, same run. Seconds, min of 3 (our solve after one warm-up call). ' +
+      'thread. CHOLMOD: supernodal, METIS, single thread, same matrix, same run. Seconds, min of 3 (our solve after three warm-up calls). ' +
       'Wall clock as asked; CPU time (ours: process.cpuUsage, CHOLMOD: thread CPU clock via bench/lib/cholmod-cpu.c) ' +
       'is the steadier comparison when the shared machine is loaded (see the load figure).',
     '',

@@ -35,7 +35,7 @@ describe('preconditioned iterative solvers', () => {
   });
 
   it('BiCGStab with ILU(0) converges on a non-symmetric convection–diffusion grid and matches LU', () => {
-    const g = laplace2d(40);
+    const g = laplace2d(32);
     const A = g.A;
     // Add central-difference convection (c·h/2 = 0.4) in x: a_{i,i±1} −= ±0.4 along x.
     const r: number[] = [], c: number[] = [], v: number[] = [];

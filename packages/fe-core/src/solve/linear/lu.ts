@@ -152,12 +152,14 @@ export class SupernodalLu implements SparseDirectSolver {
     this.A = A;
   }
 
-  solve(b: Float64Array, x?: Float64Array): Float64Array {
+  solve(bIn: Float64Array, x?: Float64Array): Float64Array {
     const sym = this.sym;
     const A = this.A;
     if (!sym || !A) throw new Error('solve() called before a successful factor()');
     const n = sym.n;
     const out = x ?? new Float64Array(n);
+    // Refinement needs b after x is written: keep a copy when the caller passes the same array.
+    const b = bIn === out ? bIn.slice() : bIn;
     this.solveOnce(b, out);
     const maxSteps = this.options.maxRefinement ?? 3;
     // With perturbed pivots the first solution can be far off: refine as long as it pays.
