@@ -19,15 +19,19 @@ export function frameHistory(problem: Problem, frame: Omit<Frame, 'history'>, pr
     const xi = recoverNodal(problem, frame.pointXi, 1);
     out.points.forEach((pt, k) => {
       const p = probes[k];
-      h[`${pt.name}.ux`] = interpolate(p, frame.displacement, 3, 0);
-      h[`${pt.name}.uy`] = interpolate(p, frame.displacement, 3, 1);
-      h[`${pt.name}.rz`] = interpolate(p, frame.displacement, 3, 2);
-      h[`${pt.name}.temperature`] = interpolate(p, frame.temperature, 1, 0);
-      h[`${pt.name}.vonMises`] = interpolate(p, vm, 1, 0);
-      h[`${pt.name}.sxx`] = interpolate(p, stress, 6, 0);
-      h[`${pt.name}.syy`] = interpolate(p, stress, 6, 1);
-      h[`${pt.name}.sxy`] = interpolate(p, stress, 6, 5) / SQRT2;
-      h[`${pt.name}.xi`] = interpolate(p, xi, 1, 0);
+      const put = (key: string, value: number) => {
+        // Values a point cannot have (stress at a beam node) are left out rather than NaN.
+        if (Number.isFinite(value)) h[`${pt.name}.${key}`] = value;
+      };
+      put('ux', interpolate(p, frame.displacement, 3, 0));
+      put('uy', interpolate(p, frame.displacement, 3, 1));
+      put('rz', interpolate(p, frame.displacement, 3, 2));
+      put('temperature', interpolate(p, frame.temperature, 1, 0));
+      put('vonMises', interpolate(p, vm, 1, 0));
+      put('sxx', interpolate(p, stress, 6, 0));
+      put('syy', interpolate(p, stress, 6, 1));
+      put('sxy', interpolate(p, stress, 6, 5) / SQRT2);
+      put('xi', interpolate(p, xi, 1, 0));
     });
   }
   for (const sum of out.reactionSums) {

@@ -1,0 +1,2 @@
+/** Structured meshers (Gmsh import comes later). */
+export * from './structured';
