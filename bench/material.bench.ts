@@ -121,7 +121,7 @@ function main(): void {
   const lines = [
     '## SMA integration-point updates (stress + 6×6 consistent tangent)',
     '',
-    `${COUNT.toLocaleString('en')} updates per case, best of ${REPEATS} repetitions, same workload in both languages (bench/c/sma_update.c, cc -O2); ` +
+    `${COUNT.toLocaleString('en')} updates per case, CPU time, best of ${REPEATS} repetitions, same workload in both languages (bench/c/sma_update.c, cc -O2); ` +
       `${new Date().toISOString().slice(0, 10)}, Node ${process.version}.`,
     '',
     '| model | regime | TypeScript (updates/s) | C (updates/s) | C / TS | same σ11 as C |',
