@@ -47,6 +47,35 @@ export async function signInViaApi(request: APIRequestContext, user: DemoUser): 
   expect(login.status(), `sign-in of ${user}`).toBe(200);
 }
 
+/** A state-changing API call with the session's CSRF token, as the web app makes it. */
+export async function apiPost(request: APIRequestContext, url: string, data: unknown): Promise<unknown> {
+  const csrf = await request.get('/api/auth/csrf');
+  const { token } = (await csrf.json()) as { token: string };
+  const answer = await request.post(url, { data, headers: { 'x-csrf-token': token } });
+  expect(answer.ok(), `POST ${url} answered ${answer.status()}`).toBeTruthy();
+  return answer.status() === 204 ? undefined : answer.json();
+}
+
+interface CapturedMail { to: string[] | string; subject: string; text: string }
+
+/**
+ * Waits for a mail to an address whose text holds a link with the given path prefix, reading the
+ * local mail catcher through the admin API, and returns that link's path (e.g. "/reset/abc").
+ */
+export async function waitForMailedLink(request: APIRequestContext, to: string, pathPrefix: string): Promise<string> {
+  let found: string | null = null;
+  await expect(async () => {
+    const answer = await request.get('/api/admin/mail');
+    expect(answer.ok()).toBeTruthy();
+    const { items } = (await answer.json()) as { items: CapturedMail[] };
+    const mail = items.find((m) => [m.to].flat().includes(to) && m.text.includes(pathPrefix));
+    const match = mail?.text.match(new RegExp(`https?://\\S+?(${pathPrefix}[A-Za-z0-9_\\-.~%]+)`));
+    expect(match, `mail to ${to} with a ${pathPrefix} link`).toBeTruthy();
+    found = match?.[1] ?? null;
+  }).toPass({ timeout: 20_000 });
+  return found ?? '';
+}
+
 /** The main navigation of the signed-in frame. */
 export function mainNav(page: Page) {
   return page.getByRole('navigation', { name: 'Main' });
