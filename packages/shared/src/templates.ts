@@ -102,8 +102,8 @@ export const actuatorWireParamsSchema = z
     cycles: count('cycles', 1, 1, 100, 'thermal cycles of the preset'),
     history: history([
       { name: 'hang weight', load: 7, increments: 4 },
-      { name: 'cool', temperature: 20, duration: 60, increments: 90 },
-      { name: 'heat', temperature: 110, duration: 60, increments: 90 },
+      { name: 'cool', temperature: 20, duration: 60, increments: 180 },
+      { name: 'heat', temperature: 110, duration: 60, increments: 180 },
     ]),
   })
   .refine((p) => p.lowTemperature < p.highTemperature, { error: 'lowTemperature must be below highTemperature', path: ['lowTemperature'] });

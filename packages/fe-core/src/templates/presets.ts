@@ -33,10 +33,11 @@ export function tensileTestSequence(o: { peak?: number; increments?: number } = 
 
 /**
  * Isobaric thermal cycles: apply `load` at the current temperature, then cool to `low` and heat
- * to `high` `cycles` times with the load held.
+ * to `high` `cycles` times with the load held. By default 0.5 °C steps, so that a
+ * transformation range of 10 °C gets about 20 increments.
  */
 export function isobaricThermalCycle(o: { load: number; low: number; high: number; cycles?: number; increments?: number; duration?: number }): TemplateSegment[] {
-  const n = o.increments ?? 90;
+  const n = o.increments ?? Math.max(40, Math.ceil(2 * (o.high - o.low)));
   const out = [segment('apply load', 4, { load: o.load })];
   const cycles = o.cycles ?? 1;
   for (let c = 1; c <= cycles; c++) {
