@@ -1,4 +1,5 @@
 import { readFileSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
 
 function versionOf(relativePackageJson: string): string {
   try {
@@ -18,4 +19,19 @@ export const API_VERSION = versionOf('../package.json');
 export function solverVersion(env: NodeJS.ProcessEnv = process.env): string {
   const base = `fe-core ${versionOf('../../../packages/fe-core/package.json')}`;
   return env.PHASELOOP_BUILD ? `${base} (${env.PHASELOOP_BUILD})` : base;
+}
+
+let commit: string | undefined;
+
+/** Git commit of the running code: PHASELOOP_BUILD when the deployment sets it, else the checkout's HEAD. */
+export function solverCommit(env: NodeJS.ProcessEnv = process.env): string {
+  if (env.PHASELOOP_BUILD) return env.PHASELOOP_BUILD;
+  if (commit === undefined) {
+    try {
+      commit = execFileSync('git', ['rev-parse', 'HEAD'], { cwd: new URL('.', import.meta.url), encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] }).trim();
+    } catch {
+      commit = 'unknown';
+    }
+  }
+  return commit;
 }

@@ -194,6 +194,19 @@ const ROUTES: Record<string, RouteRow> = {
       return { path: `/api/runs/${r.id}/files/a.csv` };
     },
   },
+  'GET /api/runs/{id}/results/{name}': {
+    access: member,
+    prepare: async () => {
+      const r = await run('succeeded');
+      const { rows } = await t.ctx.pool.query<{ id: string }>(`INSERT INTO run_artifacts (run_id, name, content_type, size, complete) VALUES ($1, 'history.csv', 'text/csv', 1, true) RETURNING id`, [r.id]);
+      await t.ctx.pool.query(`INSERT INTO run_artifact_chunks (artifact_id, seq, bytes) VALUES ($1, 0, 'a')`, [rows[0]!.id]);
+      return { path: `/api/runs/${r.id}/results/history.csv` };
+    },
+  },
+  'POST /api/runs/{id}/priority': { access: { kind: 'site-admin' }, prepare: async () => ({ path: `/api/runs/${(await run('queued')).id}/priority`, body: { priority: 5 } }) },
+  'DELETE /api/runs/{id}': { access: perm('run:submit'), prepare: async () => ({ path: `/api/runs/${(await run('succeeded')).id}` }) },
+  'POST /api/studies/{id}/duplicate': { access: perm('study:write'), prepare: async () => ({ path: `/api/studies/${(await study()).id}/duplicate`, body: {} }) },
+  'DELETE /api/studies/{id}': { access: perm('study:write'), prepare: async () => ({ path: `/api/studies/${(await study()).id}` }) },
   'GET /api/queue': { access: { kind: 'user' }, prepare: fixed('/api/queue') },
   'GET /api/comments': { access: member, prepare: async () => ({ path: `/api/comments?targetType=study&targetId=${(await study()).id}` }) },
   'POST /api/comments': { access: perm('comment:write'), prepare: async () => ({ path: '/api/comments', body: { targetType: 'study', targetId: (await study()).id, body: 'A comment' } }) },

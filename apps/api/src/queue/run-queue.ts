@@ -6,8 +6,8 @@ import PgBoss from 'pg-boss';
 import { SOLVE_QUEUE, SOLVE_QUEUE_POLICY, type SolveJob } from '@phaseloop/shared';
 
 export interface RunQueue {
-  /** Returns the job id. */
-  enqueue(runId: string): Promise<string>;
+  /** Returns the job id. Higher priority is picked up first. */
+  enqueue(runId: string, priority?: number): Promise<string>;
   /** Removes a queued job; a running handler notices the run's cancel flag instead. */
   cancel(jobId: string): Promise<void>;
   stop(): Promise<void>;
@@ -36,9 +36,9 @@ export async function startBoss(databaseUrl: string, options: { supervise: boole
 export async function createRunQueue(databaseUrl: string): Promise<RunQueue> {
   const boss = await startBoss(databaseUrl, { supervise: true });
   return {
-    async enqueue(runId) {
+    async enqueue(runId, priority = 0) {
       const data: SolveJob = { runId };
-      const id = await boss.send(SOLVE_QUEUE, data);
+      const id = await boss.send(SOLVE_QUEUE, data, { priority });
       if (!id) throw new Error(`The queue ${SOLVE_QUEUE} refused the job`);
       return id;
     },

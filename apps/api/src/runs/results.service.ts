@@ -5,7 +5,10 @@
 import type { Response } from 'express';
 import type pg from 'pg';
 import { QueryTypes, type Sequelize } from 'sequelize';
-import { notFound } from '../http/errors';
+import { pipeline } from 'node:stream/promises';
+import { HttpError, notFound } from '../http/errors';
+import type { AppContext } from '../context';
+import { objectStoreFromEnv } from './object-store';
 
 export interface IterationRow {
   seq: number; segment: number; increment: number; iteration: number; time: number;
@@ -41,8 +44,8 @@ export async function listArtifacts(sequelize: Sequelize, runId: string): Promis
 }
 
 export async function streamArtifact(pool: pg.Pool, runId: string, name: string, res: Response): Promise<void> {
-  const { rows } = await pool.query<{ id: string; content_type: string; size: string; storage: string }>(
-    'SELECT id, content_type, size, storage FROM run_artifacts WHERE run_id = $1 AND name = $2 AND complete',
+  const { rows } = await pool.query<{ id: string; content_type: string; size: string; storage: string; storage_key: string | null }>(
+    'SELECT id, content_type, size, storage, storage_key FROM run_artifacts WHERE run_id = $1 AND name = $2 AND complete',
     [runId, name],
   );
   const artifact = rows[0];
@@ -51,6 +54,13 @@ export async function streamArtifact(pool: pg.Pool, runId: string, name: string,
   res.setHeader('Content-Type', artifact.content_type);
   res.setHeader('Content-Length', artifact.size);
   res.setHeader('Content-Disposition', `attachment; filename="${name.replace(/[^A-Za-z0-9._-]/g, '_')}"`);
+  if (artifact.storage === 's3') {
+    const store = objectStoreFromEnv();
+    if (!store || !artifact.storage_key) throw new HttpError(503, 'The result store holding this file is not configured on this server');
+    await pipeline(await store.open(artifact.storage_key), res);
+    return;
+  }
+  // One chunk row at a time: neither the API nor the database holds the whole file for a download.
   let seq = -1;
   for (;;) {
     const chunk = await pool.query<{ seq: number; bytes: Buffer }>(
@@ -63,4 +73,18 @@ export async function streamArtifact(pool: pg.Pool, runId: string, name: string,
     if (!res.write(row.bytes)) await new Promise((resolve) => res.once('drain', resolve));
   }
   res.end();
+}
+
+/** Removes a run's result files: objects in S3 first, then the rows (chunks cascade). */
+export async function deleteStoredResults(ctx: AppContext, runId: string): Promise<void> {
+  const { rows } = await ctx.pool.query<{ storage_key: string }>(
+    `SELECT storage_key FROM run_artifacts WHERE run_id = $1 AND storage = 's3' AND storage_key IS NOT NULL`,
+    [runId],
+  );
+  if (rows.length > 0) {
+    const store = objectStoreFromEnv();
+    if (!store) throw new HttpError(503, 'The result store holding this run\'s files is not configured on this server');
+    await store.remove(rows.map((r) => r.storage_key));
+  }
+  await ctx.pool.query('DELETE FROM run_artifacts WHERE run_id = $1', [runId]);
 }

@@ -7,6 +7,8 @@ export interface RunSnapshot {
   study: { id: string; name: string; revision: number; definition: StudyDefinition };
   materials: { versionId: string; materialId: string; name: string; version: number; status: string; params: MaterialParams }[];
   solverVersion: string;
+  /** Solver name, version and the git commit of the code that queued it. */
+  solver?: { name: string; version: string; commit: string };
   submittedAt: string;
 }
 
@@ -31,6 +33,9 @@ export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run
   declare startedAt: CreationOptional<Date | null>;
   declare finishedAt: CreationOptional<Date | null>;
   declare cancelRequestedAt: CreationOptional<Date | null>;
+  declare cancelledBy: CreationOptional<string | null>;
+  declare attempts: CreationOptional<number>;
+  declare priority: CreationOptional<number>;
   declare reviewStatus: CreationOptional<RunReviewStatus>;
   declare reviewedBy: CreationOptional<string | null>;
   declare reviewedAt: CreationOptional<Date | null>;
@@ -58,6 +63,9 @@ export function initRunModels(sequelize: Sequelize): void {
       startedAt: { type: DataTypes.DATE, allowNull: true },
       finishedAt: { type: DataTypes.DATE, allowNull: true },
       cancelRequestedAt: { type: DataTypes.DATE, allowNull: true },
+      cancelledBy: { type: DataTypes.UUID, allowNull: true },
+      attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      priority: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       reviewStatus: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'none' },
       reviewedBy: { type: DataTypes.UUID, allowNull: true },
       reviewedAt: { type: DataTypes.DATE, allowNull: true },

@@ -6,14 +6,14 @@ import type { AppContext } from '../context';
 import { idParams, projectParams, uuid } from '../http/common-schemas';
 import { requireProject, visibleProjectIds } from '../projects/projects.service';
 import { Run } from './runs.model';
-import { cancelRun, listStudyRuns, requestReview, requireRun, rerun, reviewRun, submitRun, toRunDto } from './runs.service';
+import { cancelRun, deleteRun, listStudyRuns, requestReview, requireRun, rerun, reviewRun, setRunPriority, submitRun, toRunDto } from './runs.service';
 import { listArtifacts, listFrames, listIterations, streamArtifact } from './results.service';
 
 export const runDto = z.object({
   id: uuid, projectId: uuid, studyId: uuid, sweepId: uuid.nullable(), number: z.number().int(), state: z.enum(RUN_STATES),
   message: z.string(), solverVersion: z.string(), progress: z.record(z.string(), z.unknown()), queuePosition: z.number().int().nullable(),
   submittedBy: z.string().nullable(), createdAt: z.string(), queuedAt: z.string().nullable(), startedAt: z.string().nullable(),
-  finishedAt: z.string().nullable(), cancelRequested: z.boolean(), reviewStatus: z.enum(['none', 'requested', 'approved', 'rejected']),
+  finishedAt: z.string().nullable(), cancelRequested: z.boolean(), cancelledBy: z.string().nullable(), attempts: z.number().int(), priority: z.number().int(), reviewStatus: z.enum(['none', 'requested', 'approved', 'rejected']),
   reviewReason: z.string(), snapshot: z.record(z.string(), z.unknown()).optional(),
 });
 
@@ -61,6 +61,16 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
       method: 'post', path: '/runs/:id/cancel', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Cancel a queued or running run', status: 200,
       params: idParams, response: runDto,
       handler: ({ user, params }) => cancelRun(ctx, user, params.id),
+    })
+    .add({
+      method: 'post', path: '/runs/:id/priority', tag, access: 'site-admin', summary: 'Move a queued run up (higher priority) or down in the queue', status: 200,
+      params: idParams, body: z.object({ priority: z.number().int().min(-100).max(100) }), response: runDto,
+      handler: ({ user, params, body }) => setRunPriority(ctx, user, params.id, body.priority),
+    })
+    .add({
+      method: 'delete', path: '/runs/:id', tag, access: 'user', description: 'Project analysts and admins; finished runs only.', summary: 'Delete a run and its stored results', status: 204,
+      params: idParams,
+      handler: async ({ user, params }) => { await deleteRun(ctx, user, params.id); },
     })
     .add({
       method: 'post', path: '/runs/:id/rerun', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Queue the same snapshot again',
@@ -113,6 +123,15 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
       },
     })
     .add({
+      method: 'get', path: '/runs/:id/results/:name', tag, access: 'user', raw: true,
+      summary: 'Download a result: result.json, frames.pvd, frame-<k>.vtu or history.csv (streamed)',
+      params: idParams.extend({ name: z.string().regex(/^(result\.json|frames\.pvd|history\.csv|frame-\d{1,6}\.vtu)$/, { error: 'name must be result.json, frames.pvd, history.csv or frame-<k>.vtu' }) }),
+      handler: async ({ user, params, res }) => {
+        await requireRun(user, params.id);
+        await streamArtifact(ctx.pool, params.id, params.name, res);
+      },
+    })
+    .add({
       method: 'get', path: '/queue', tag, access: 'user', summary: 'Queued and running runs I can see, and the workers',
       response: z.object({
         runs: z.array(runDto),
@@ -121,7 +140,7 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
       handler: async ({ user }) => {
         const ids = await visibleProjectIds(user);
         const where = ids === 'all' ? { state: ['queued', 'running'] } : { state: ['queued', 'running'], projectId: ids };
-        const visible = await Run.findAll({ where, order: [['queuedAt', 'ASC']] });
+        const visible = await Run.findAll({ where, order: [['priority', 'DESC'], ['queuedAt', 'ASC']] });
         const workers = await ctx.sequelize.query<{ id: string; hostname: string; pid: number; lastSeenAt: Date; currentRunId: string | null }>(
           `SELECT id, hostname, pid, last_seen_at AS "lastSeenAt", current_run_id AS "currentRunId"
              FROM workers WHERE last_seen_at > now() - interval '2 minutes' ORDER BY id`,

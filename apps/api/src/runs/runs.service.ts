@@ -9,8 +9,10 @@ import { audit } from '../audit/audit.service';
 import { User } from '../users/users.model';
 import { Material, MaterialVersion } from '../materials/materials.model';
 import { Study } from '../studies/studies.model';
-import { checkMaterialsBelong, requireStudy } from '../studies/studies.service';
-import { studyDefinitionEnvelope } from '../studies/study-definition';
+import { requireStudy, validateDefinition } from '../studies/studies.service';
+import { nodeCountOf, studyDefinitionEnvelope } from '../studies/study-definition';
+import { solverCommit } from '../version';
+import { deleteStoredResults } from './results.service';
 import { Run, type RunReviewStatus, type RunSnapshot } from './runs.model';
 
 export interface RunDto {
@@ -30,6 +32,9 @@ export interface RunDto {
   startedAt: string | null;
   finishedAt: string | null;
   cancelRequested: boolean;
+  cancelledBy: string | null;
+  attempts: number;
+  priority: number;
   reviewStatus: RunReviewStatus;
   reviewReason: string;
   snapshot?: Record<string, unknown>;
@@ -37,12 +42,13 @@ export interface RunDto {
 
 const iso = (d: Date | null | undefined): string | null => (d ? d.toISOString() : null);
 
-/** 1 = next to be picked up. Runs are served first come, first served. */
+/** 1 = next to be picked up. Higher priority first (set by admins), then first come, first served. */
 export async function queuePosition(sequelize: Sequelize, run: Run): Promise<number | null> {
   if (run.state !== 'queued' || !run.queuedAt) return null;
   const [row] = await sequelize.query<{ n: number }>(
-    `SELECT count(*) AS n FROM runs WHERE state = 'queued' AND (queued_at, id) <= (:queuedAt, :id)`,
-    { replacements: { queuedAt: run.queuedAt, id: run.id }, type: QueryTypes.SELECT },
+    `SELECT count(*) AS n FROM runs WHERE state = 'queued'
+        AND (priority > :priority OR (priority = :priority AND (queued_at, id) <= (:queuedAt, :id)))`,
+    { replacements: { queuedAt: run.queuedAt, id: run.id, priority: run.priority ?? 0 }, type: QueryTypes.SELECT },
   );
   return Number(row.n);
 }
@@ -53,7 +59,8 @@ export async function toRunDto(sequelize: Sequelize, run: Run, withSnapshot = fa
     state: run.state, message: run.message, solverVersion: run.solverVersion, progress: run.progress,
     queuePosition: await queuePosition(sequelize, run), submittedBy: run.submittedBy,
     createdAt: run.createdAt.toISOString(), queuedAt: iso(run.queuedAt), startedAt: iso(run.startedAt),
-    finishedAt: iso(run.finishedAt), cancelRequested: run.cancelRequestedAt !== null, reviewStatus: run.reviewStatus,
+    finishedAt: iso(run.finishedAt), cancelRequested: run.cancelRequestedAt !== null, cancelledBy: run.cancelledBy ?? null,
+    attempts: run.attempts ?? 0, priority: run.priority ?? 0, reviewStatus: run.reviewStatus,
     reviewReason: run.reviewReason, ...(withSnapshot ? { snapshot: run.snapshot as unknown as Record<string, unknown> } : {}),
   };
 }
@@ -65,30 +72,41 @@ export async function requireRun(user: SessionUser, id: string, permission: Perm
   return run;
 }
 
-async function checkQuota(sequelize: Sequelize, user: SessionUser, estimatedNodes: number | undefined): Promise<void> {
+/** Runs a user may have queued at once, per run they may have running at once. */
+export const QUEUED_PER_ACTIVE_RUN = 25;
+
+/**
+ * Quotas set by an admin per user: model size (nodes) and how many runs may wait in the queue.
+ * The number of runs solved at once (maxActiveRuns) is enforced by the workers at pick-up, so
+ * extra runs simply stay queued.
+ */
+async function checkQuota(user: SessionUser, nodes: number | undefined): Promise<void> {
   const account = await User.findByPk(user.id);
   if (!account) throw new HttpError(401, 'Please sign in');
-  if (estimatedNodes !== undefined && estimatedNodes > account.maxNodes) {
-    throw new HttpError(422, `The model has about ${estimatedNodes} nodes; your quota is ${account.maxNodes}. Coarsen the mesh or ask an admin.`, 'validation_failed', { reason: 'quota', quota: 'maxNodes' });
+  if (nodes !== undefined && nodes > account.maxNodes) {
+    throw new HttpError(429, `The model has ${nodes} nodes, over your model-size limit of ${account.maxNodes} nodes (maxNodes). Coarsen the mesh or ask an admin to raise the limit.`, 'rate_limited', { reason: 'quota', limit: 'maxNodes', value: nodes, max: account.maxNodes });
   }
+  const cap = account.maxActiveRuns * QUEUED_PER_ACTIVE_RUN;
   const active = await Run.count({ where: { submittedBy: user.id, state: { [Op.in]: ['queued', 'running'] } } });
-  if (active >= account.maxActiveRuns) {
-    throw new HttpError(429, `You already have ${active} runs queued or running (your quota is ${account.maxActiveRuns}); wait for one to finish or cancel one.`, 'conflict', { reason: 'quota', quota: 'maxActiveRuns' });
+  if (active >= cap) {
+    throw new HttpError(429, `You already have ${active} runs queued or running, your limit of queued runs is ${cap} (maxQueuedRuns = ${QUEUED_PER_ACTIVE_RUN} × maxActiveRuns); wait for some to finish or cancel some.`, 'rate_limited', { reason: 'quota', limit: 'maxQueuedRuns', value: active, max: cap });
   }
 }
 
 async function buildSnapshot(study: Study, solverVersion: string): Promise<RunSnapshot> {
   const parsed = studyDefinitionEnvelope.safeParse(study.definition);
-  if (!parsed.success) throw new HttpError(422, 'The study is not complete: ' + parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; '), 'validation_failed');
-  const versions = await checkMaterialsBelong(study.projectId, parsed.data);
+  if (!parsed.success) throw new HttpError(422, 'The study is not complete: ' + parsed.error.issues.map((i) => `${['definition', ...i.path].join('.')}: ${i.message}`).join('; '), 'validation_failed', parsed.error.issues.map((i) => ({ path: ['definition', ...i.path].join('.'), message: i.message })));
+  const versions = await validateDefinition(study.projectId, parsed.data);
   const materials = await Material.findAll({ where: { id: { [Op.in]: versions.map((v) => v.materialId) } } });
   const nameOf = new Map(materials.map((m) => [m.id, m.name]));
+  const [name, version] = solverVersion.split(' ');
   return {
     study: { id: study.id, name: study.name, revision: study.revision, definition: parsed.data },
     materials: versions.map((v: MaterialVersion) => ({
       versionId: v.id, materialId: v.materialId, name: nameOf.get(v.materialId) ?? '', version: v.version, status: v.status, params: v.params,
     })),
     solverVersion,
+    solver: { name: name ?? 'fe-core', version: version ?? '', commit: solverCommit() },
     submittedAt: new Date().toISOString(),
   };
 }
@@ -107,7 +125,7 @@ async function insertAndQueue(ctx: AppContext, user: SessionUser, study: Study, 
     );
   });
   try {
-    const jobId = await ctx.queue.enqueue(run.id);
+    const jobId = await ctx.queue.enqueue(run.id, run.priority ?? 0);
     await run.update({ jobId });
   } catch (err) {
     ctx.logger.error({ err, runId: run.id }, 'enqueue failed');
@@ -128,7 +146,7 @@ export async function publishStatus(ctx: AppContext, run: Run): Promise<void> {
 export async function submitRun(ctx: AppContext, user: SessionUser, studyId: string): Promise<RunDto> {
   const study = await requireStudy(user, studyId, 'run:submit');
   const snapshot = await buildSnapshot(study, ctx.solverVersion);
-  await checkQuota(ctx.sequelize, user, snapshot.study.definition.estimatedNodes);
+  await checkQuota(user, nodeCountOf(snapshot.study.definition));
   return toRunDto(ctx.sequelize, await insertAndQueue(ctx, user, study, snapshot, null));
 }
 
@@ -137,8 +155,11 @@ export async function rerun(ctx: AppContext, user: SessionUser, runId: string): 
   const previous = await requireRun(user, runId, 'run:submit');
   const study = await Study.findByPk(previous.studyId);
   if (!study) throw notFound('Study');
-  await checkQuota(ctx.sequelize, user, previous.snapshot.study.definition.estimatedNodes);
-  const snapshot: RunSnapshot = { ...previous.snapshot, solverVersion: ctx.solverVersion, submittedAt: new Date().toISOString() };
+  await checkQuota(user, nodeCountOf(previous.snapshot.study.definition));
+  const snapshot: RunSnapshot = {
+    ...previous.snapshot, solverVersion: ctx.solverVersion, submittedAt: new Date().toISOString(),
+    solver: { ...(previous.snapshot.solver ?? { name: 'fe-core', version: '' }), commit: solverCommit() },
+  };
   return toRunDto(ctx.sequelize, await insertAndQueue(ctx, user, study, snapshot, previous.sweepId));
 }
 
@@ -150,13 +171,16 @@ export async function cancelRun(ctx: AppContext, user: SessionUser, runId: strin
   const run = await requireRun(user, runId, 'run:cancel');
   if (isFinalRunState(run.state)) throw new HttpError(409, `The run has already ${run.state === 'cancelled' ? 'been cancelled' : run.state}`);
   const [cancelledQueued] = await Run.update(
-    { state: 'cancelled', cancelRequestedAt: new Date(), finishedAt: new Date(), message: `Cancelled by ${user.name} before it started` },
+    { state: 'cancelled', cancelRequestedAt: new Date(), cancelledBy: user.id, finishedAt: new Date(), message: `Cancelled by ${user.name} before it started` },
     { where: { id: run.id, state: 'queued' } },
   );
   if (cancelledQueued === 1) {
     if (run.jobId) await ctx.queue.cancel(run.jobId).catch((err: unknown) => ctx.logger.warn({ err, runId }, 'job cancel failed'));
   } else {
-    await Run.update({ cancelRequestedAt: new Date() }, { where: { id: run.id, state: 'running', cancelRequestedAt: null } });
+    await Run.update(
+      { cancelRequestedAt: new Date(), cancelledBy: user.id, message: `Cancel requested by ${user.name}` },
+      { where: { id: run.id, state: 'running', cancelRequestedAt: null } },
+    );
   }
   await run.reload();
   await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: 'run.cancel', targetType: 'run', targetId: run.id, detail: { state: run.state } });
@@ -194,4 +218,32 @@ export async function reviewRun(ctx: AppContext, user: SessionUser, runId: strin
   await run.update({ reviewStatus: decision === 'approve' ? 'approved' : 'rejected', reviewedBy: user.id, reviewedAt: new Date(), reviewReason: reason });
   await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: `run.${decision}`, targetType: 'run', targetId: run.id, detail: { reason } });
   return toRunDto(ctx.sequelize, run);
+}
+
+/**
+ * Admins move a queued run up or down. pg-boss cannot re-prioritise a waiting job, so the old job
+ * is cancelled and the run queued again with the new priority (a worker that already fetched the
+ * old job finds the run claimed or drops the job).
+ */
+export async function setRunPriority(ctx: AppContext, user: SessionUser, runId: string, priority: number): Promise<RunDto> {
+  const run = await Run.findByPk(runId);
+  if (!run) throw notFound('Run');
+  if (run.state !== 'queued') throw new HttpError(409, 'Only a queued run can be moved in the queue');
+  const oldJob = run.jobId;
+  await run.update({ priority });
+  const jobId = await ctx.queue.enqueue(run.id, priority);
+  await run.update({ jobId });
+  if (oldJob) await ctx.queue.cancel(oldJob).catch((err: unknown) => ctx.logger.warn({ err, runId }, 'old job cancel failed'));
+  await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: 'run.priority', targetType: 'run', targetId: run.id, detail: { priority } });
+  await publishStatus(ctx, run);
+  return toRunDto(ctx.sequelize, run);
+}
+
+/** Deletes a finished run with everything stored for it (rows, chunks, objects in S3). */
+export async function deleteRun(ctx: AppContext, user: SessionUser, runId: string): Promise<void> {
+  const run = await requireRun(user, runId, 'run:submit');
+  if (!isFinalRunState(run.state)) throw new HttpError(409, 'Cancel the run before deleting it');
+  await deleteStoredResults(ctx, run.id);
+  await run.destroy();
+  await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: 'run.delete', targetType: 'run', targetId: run.id, detail: { number: run.number } });
 }

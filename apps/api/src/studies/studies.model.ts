@@ -11,6 +11,8 @@ export class Study extends Model<InferAttributes<Study>, InferCreationAttributes
   /** Raised on every save, so a run can say which revision it froze. */
   declare revision: CreationOptional<number>;
   declare createdBy: string | null;
+  declare deletedAt: CreationOptional<Date | null>;
+  declare deletedBy: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -26,6 +28,8 @@ export function initStudyModels(sequelize: Sequelize): void {
       definition: { type: DataTypes.JSONB, allowNull: false },
       revision: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       createdBy: { type: DataTypes.UUID, allowNull: true },
+      deletedAt: { type: DataTypes.DATE, allowNull: true },
+      deletedBy: { type: DataTypes.UUID, allowNull: true },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },

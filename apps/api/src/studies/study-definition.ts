@@ -1,10 +1,12 @@
 /**
- * What the API itself needs from a study definition: the material versions it uses (to freeze them
- * into a run) and a size estimate (for the quota). The rest of the definition (template, geometry,
- * mesh, history segments, outputs) is validated by the study schema of @phaseloop/shared where one
- * exists, and always again by the worker before it solves; unknown keys are kept as they are.
+ * What the API itself needs from a study definition. The definition is an fe-core model
+ * (`definition.model`, @phaseloop/shared model schema) whose `materials` entries may be library
+ * references `{ materialVersionId }`, plus the editor's own keys (template, geometry, ...), which
+ * are kept as they are. Older definitions list material assignments in `definition.materials`
+ * instead; both kinds of reference are frozen into a run.
  */
 import { z } from 'zod';
+import { modelSize, referencedMaterialVersions } from '@phaseloop/shared';
 
 export const materialAssignmentSchema = z.object({
   /** Element set / region name of the template or mesh that gets this material. */
@@ -12,14 +14,28 @@ export const materialAssignmentSchema = z.object({
   materialVersionId: z.string().uuid({ error: 'materialVersionId must be a material version id' }),
 });
 
-export const studyDefinitionEnvelope = z.looseObject({
-  materials: z.array(materialAssignmentSchema).min(1, { error: 'Assign at least one material' }),
-  /** Nodes of the model, as estimated by the template or counted in the uploaded mesh. */
-  estimatedNodes: z.number().int().positive().optional(),
-});
+export const studyDefinitionEnvelope = z
+  .looseObject({
+    materials: z.array(materialAssignmentSchema).default([]),
+    /** The fe-core model (validated in full by validateDefinition, where references are resolved). */
+    model: z.looseObject({}).optional(),
+    /** Nodes of the model, as estimated by the template or counted in the uploaded mesh. */
+    estimatedNodes: z.number().int().positive().optional(),
+  })
+  .superRefine((d, ctx) => {
+    if (d.model === undefined && d.materials.length === 0) {
+      ctx.addIssue({ code: 'custom', path: ['materials'], message: 'Assign at least one material' });
+    }
+  });
 
 export type StudyDefinition = z.infer<typeof studyDefinitionEnvelope>;
 
 export function materialVersionIdsOf(definition: StudyDefinition): string[] {
-  return [...new Set(definition.materials.map((m) => m.materialVersionId))];
+  return [...new Set([...definition.materials.map((m) => m.materialVersionId), ...referencedMaterialVersions(definition.model)])];
+}
+
+/** Node count checked against the user's quota: counted in the model, or the template's estimate. */
+export function nodeCountOf(definition: StudyDefinition): number | undefined {
+  if (definition.model !== undefined) return modelSize(definition.model).nodes;
+  return definition.estimatedNodes;
 }
