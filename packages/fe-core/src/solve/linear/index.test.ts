@@ -35,3 +35,20 @@ describe('createLinearSolver', () => {
     expect(s.stats().perturbedPivots).toBe(0);
   });
 });
+
+describe('createLinearSolver on degenerate sizes', () => {
+  it('solves 1×1 and empty systems on both paths', () => {
+    for (const symmetric of [true, false]) {
+      const one = { n: 1, rowPtr: Int32Array.from([0, 1]), colIdx: Int32Array.from([0]), values: Float64Array.from([4]) };
+      const s = createLinearSolver();
+      s.analyse(one, { symmetric });
+      s.factor(one);
+      expect(s.solve(Float64Array.from([2]))[0]).toBe(0.5);
+      const empty = { n: 0, rowPtr: Int32Array.from([0]), colIdx: new Int32Array(0), values: new Float64Array(0) };
+      const z = createLinearSolver();
+      z.analyse(empty, { symmetric });
+      z.factor(empty);
+      expect(z.solve(new Float64Array(0)).length).toBe(0);
+    }
+  });
+});
