@@ -1,12 +1,8 @@
 /**
- * Material-point driver: one integration point in a uniaxial stress state (σ22 = σ33 = 0 by a local
- * Newton iteration on the lateral strains, condensed tangent), driven along a path of legs in axial
- * strain or axial stress and temperature. Used by calibration, by the material preview and tests.
- *
- * The lateral iteration is the same as ReducedMaterial 'uniaxial' (material/reduce.ts) but its
- * tolerance is scaled by the elastic stress level C·|ε| rather than by the axial stress alone:
- * at zero axial stress (free heating/cooling, unloaded states with residual strain) a tolerance
- * relative to σ11 would ask for lateral stresses below round-off.
+ * Material-point driver: one integration point in a uniaxial stress state (σ22 = σ33 = 0 by the
+ * local Newton iteration of ReducedMaterial 'uniaxial', condensed tangent), driven along a path of
+ * legs in axial strain or axial stress and temperature. Used by calibration, by the material
+ * preview and by tests.
  *
  * Conventions
  *  - The point starts virgin and stress-free at the first path temperature. Strain is reported
@@ -18,7 +14,8 @@
  *  - A failed increment (local return map, or the stress-control iteration) is cut in halves up
  *    to MAX_CUTS times; only the requested increments produce rows.
  */
-import { KM, createMaterialPointOutput, createMaterialReport, type Material, type MaterialPointOutput } from './types';
+import { ReducedMaterial, createReducedOutput, type ReducedOutput } from './reduce';
+import { createMaterialReport, type Material } from './types';
 
 export type MaterialPointControl = 'strain' | 'stress';
 
@@ -74,12 +71,14 @@ export function runMaterialPoint<P>(material: Material<P>, driver: MaterialPoint
   return new MaterialPointRunner(material, driver).run();
 }
 
-/** σ22 = σ33 = 0 condensation of a 3D material; state = [material state | ε22, ε33]. */
+/** σ22 = σ33 = 0 through ReducedMaterial 'uniaxial'; state = [material state | ε22, ε33]. */
 export class UniaxialPoint<P> {
   readonly stateSize: number;
-  private readonly strain = new Float64Array(KM);
-  private readonly strainOld = new Float64Array(KM);
-  private readonly point: MaterialPointOutput = createMaterialPointOutput();
+  private readonly reduced: ReducedMaterial<P>;
+  private readonly out: ReducedOutput = createReducedOutput('uniaxial');
+  private readonly strain = new Float64Array(1);
+  private readonly strainOld = new Float64Array(1);
+  private readonly input = { strain: this.strain, strainOld: this.strainOld, temperature: 0, temperatureOld: 0 };
   /** Axial stress, condensed axial tangent, and the local failure message. */
   stress = 0;
   tangent = 0;
@@ -87,52 +86,25 @@ export class UniaxialPoint<P> {
   message = '';
 
   constructor(readonly material: Material<P>) {
-    this.stateSize = material.stateSize + 2;
+    this.reduced = new ReducedMaterial(material, 'uniaxial');
+    this.stateSize = this.reduced.stateSize;
   }
 
   initState(state: Float64Array, temperature: number): void {
-    this.material.initState(state, 0, temperature);
-    state[this.material.stateSize] = 0;
-    state[this.material.stateSize + 1] = 0;
+    this.reduced.initState(state, 0, temperature);
   }
 
   update(strain: number, strainOld: number, temperature: number, temperatureOld: number, stateOld: Float64Array, state: Float64Array): boolean {
-    const m = this.material.stateSize;
-    const e = this.strain;
-    e.fill(0);
-    this.strainOld.fill(0);
-    e[0] = strain;
+    this.strain[0] = strain;
     this.strainOld[0] = strainOld;
-    e[1] = this.strainOld[1] = stateOld[m];
-    e[2] = this.strainOld[2] = stateOld[m + 1];
-    const input = { strain: e, strainOld: this.strainOld, temperature, temperatureOld };
-    const { stress: sg, tangent: c } = this.point;
-    this.ok = false;
-    this.message = 'the uniaxial condition (zero lateral stress) did not converge';
-    for (let it = 0; it < 40; it++) {
-      this.material.update(input, stateOld, 0, state, 0, this.point);
-      if (!this.point.ok) {
-        this.message = this.point.message;
-        return false;
-      }
-      const a = c[7], b = c[8], d = c[13], f = c[14];
-      const level = Math.max(Math.abs(sg[0]), (Math.abs(c[0]) + Math.abs(a) + Math.abs(f)) * (Math.abs(e[0]) + Math.abs(e[1]) + Math.abs(e[2])), 1e-3);
-      const r1 = sg[1], r2 = sg[2];
-      const det = a * f - b * d;
-      if (Math.abs(r1) <= 1e-11 * level && Math.abs(r2) <= 1e-11 * level) {
-        this.stress = sg[0];
-        this.tangent = c[0] - (c[1] * (f * c[6] - b * c[12]) + c[2] * (-d * c[6] + a * c[12])) / det;
-        state[m] = e[1];
-        state[m + 1] = e[2];
-        this.ok = true;
-        this.message = '';
-        return true;
-      }
-      if (!(Math.abs(det) > 0)) break;
-      e[1] -= (f * r1 - b * r2) / det;
-      e[2] -= (-d * r1 + a * r2) / det;
-    }
-    return false;
+    this.input.temperature = temperature;
+    this.input.temperatureOld = temperatureOld;
+    this.reduced.update(this.input, stateOld, 0, state, 0, this.out);
+    this.ok = this.out.ok;
+    this.message = this.out.message;
+    this.stress = this.out.stress[0];
+    this.tangent = this.out.tangent[0];
+    return this.ok;
   }
 }
 
