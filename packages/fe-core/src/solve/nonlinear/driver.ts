@@ -160,7 +160,6 @@ class Driver {
   private stateOld: Float64Array;
   private readonly fext: Float64Array;
   private readonly rhs: Float64Array;
-  private readonly predictorFint: Float64Array;
   private readonly predictorStep: Float64Array;
   private readonly du: Float64Array;
   /** Load values at the start of the current segment and at its end. */
@@ -202,7 +201,6 @@ class Driver {
     this.state.set(this.stateOld);
     this.fext = new Float64Array(this.nDof);
     this.rhs = new Float64Array(this.nEq);
-    this.predictorFint = new Float64Array(this.nEq);
     this.predictorStep = new Float64Array(problem.dirichlet.length);
     this.du = new Float64Array(this.nEq);
     const nLoads = problem.loads.length;
@@ -403,39 +401,42 @@ class Driver {
   }
 
   /**
-   * Predictor: the first correction of the increment from the tangent at the converged state
-   * (evaluated for a zero strain increment, so a load reversal sees the elastic unloading
-   * stiffness rather than the transforming or yielding one of the last iteration),
-   *   K_ff du_f = f_ext,f(new) − f_int,f(converged) − K_fp Δu_p,
-   * so a step of prescribed displacement spreads over the whole body (as the linear response
+   * Predictor: the first correction of the increment, from the tangent and internal forces at
+   * the converged displacements under the increment's new temperatures (a zero strain increment,
+   * so a load reversal sees the elastic unloading stiffness rather than the transforming or
+   * yielding one of the last iteration, and a temperature change already acts as a load):
+   *   K_ff du_f = f_ext,f(new) − f_int,f(u_old, T_new) − K_fp Δu_p.
+   * A step of prescribed displacement thus spreads over the whole body (as the linear response
    * would) instead of straining only the elements at the boundary in the first iterate.
    */
   private predict(fraction: number): void {
     const { freeDofs, prescribed } = this.asm.numbering;
-    // u = uOld and T = TOld here (after a commit or a cut-back).
-    this.evaluate(true);
-    if (!this.status.ok) throw new IncrementFailure('material', `material point in element ${this.status.element} failed at the converged state (${this.status.message})`);
-    const fintOld = this.predictorFint;
-    for (let k = 0; k < this.nEq; k++) fintOld[k] = this.asm.fint[freeDofs[k]];
+    // Entered with u = uOld, T = TOld (after a commit or a cut-back).
     this.applyLoads(fraction);
     const step = this.predictorStep;
     let stepNorm = 0;
     for (let k = 0; k < prescribed.length; k++) {
-      step[k] = this.u[prescribed[k]] - this.uOld[prescribed[k]];
+      const d = prescribed[k];
+      step[k] = this.u[d] - this.uOld[d];
       stepNorm += step[k] * step[k];
+      this.u[d] = this.uOld[d];
     }
+    this.evaluate(true);
+    for (let k = 0; k < prescribed.length; k++) this.u[prescribed[k]] += step[k];
+    if (!this.status.ok) throw new IncrementFailure('material', `material point in element ${this.status.element} did not converge in the predictor (${this.status.message || 'local update failed'})`);
     if (stepNorm > 0) this.asm.couplingTimes(step, this.rhs);
     else this.rhs.fill(0);
     let r2 = 0;
     let f2 = 0;
     for (let k = 0; k < this.nEq; k++) {
       const d = freeDofs[k];
-      const r = this.fext[d] - fintOld[k] - this.rhs[k];
+      const fint = this.asm.fint[d];
+      const r = this.fext[d] - fint - this.rhs[k];
       this.rhs[k] = r;
       r2 += r * r;
-      f2 += this.fext[d] * this.fext[d] + fintOld[k] * fintOld[k];
+      f2 += this.fext[d] * this.fext[d] + fint * fint;
     }
-    // Nothing to predict (a hold, or a temperature change only): the iterations take over.
+    // Nothing to predict (a hold): the iterations take over.
     if (r2 <= 1e-28 * Math.max(f2, this.forceFloor * this.forceFloor)) return;
     this.solveCorrection();
     for (let k = 0; k < this.nEq; k++) this.u[freeDofs[k]] += this.du[k];
