@@ -6,9 +6,12 @@
  *
  * Boundary conditions:
  * - symmetry on the apex section x = 0 (set `apex`): the V is mirror-symmetric about its axis;
- * - the strut's end section (set `strutEnd`) moves circumferentially as one (ux prescribed on
- *   all its nodes, so it cannot rotate, as at the next crown's symmetry plane); uy is held at
- *   its middle node only (set `anchor`), so the cell can shorten axially.
+ * - the strut's end section (set `strutEnd`), where the next (inverted) crown begins, moves
+ *   circumferentially as one: ux prescribed on all its nodes, so it cannot rotate. By the
+ *   ring's point symmetry about the strut's middle, that end carries the same moment as the
+ *   crown end, and the strut bends in an S with its inflection at mid-length; the next crown's
+ *   own compliance is left out. uy is held at the end's middle node only (set `anchor`), so the
+ *   cell can shorten axially.
  * `load` = ring diameter (mm): the strut end travels π(D − D_expanded)/(2N) for N V units.
  * Small rotations: crimping far below the expanded diameter rotates the strut by large angles,
  * which this small-strain model does not follow.
