@@ -58,7 +58,7 @@ describe('issue 4 acceptance: plane-stress dogbone with the Lagoudas 2012 model'
       expect(Math.max(...Array.from(last.pointXi))).toBe(0);
       expect(Math.abs(last.history['grip.Fx'])).toBeLessThan(1e-6);
       expect(samples).toBeGreaterThan(5);
-      assertCheck({ suite: SUITE, name: `dogbone ${type}, pseudoelastic 6 % loop at 37 °C: Newton order (median; ${cutBacks} cut-backs)`, computed: median, target: 2, unit: '–', tolerance: 0.35, absolute: true, source: 'quadratic convergence of Newton with the consistent tangent (Simo & Hughes 1998, Computational Inelasticity)' });
+      assertCheck({ suite: SUITE, name: `dogbone ${type}, pseudoelastic 6 % loop at 37 °C: Newton order (median; ${cutBacks} cut-backs)`, computed: median, target: 2, unit: '–', tolerance: 0.5, absolute: true, source: 'quadratic convergence of Newton with the consistent tangent (Simo & Hughes 1998, Computational Inelasticity)' });
     });
 
     it(`${type}: isobaric thermal cycle under 150 MPa gauge stress (60 → −20 → 60 °C)`, () => {
