@@ -47,5 +47,5 @@ export { createMaterial, isMaterialAvailable, MaterialNotAvailableError } from '
 export type { Material, MaterialReport, MaterialPointInput, MaterialPointOutput } from './material/types';
 export { ReducedMaterial, type StressState } from './material/reduce';
 export { elementKernels, getElementKernel, type ElementKernel, type ElementName, type Section } from './element';
-export { templates, presets as historyPresets, TemplateParamsError, DEMO_SUPERELASTIC, DEMO_ACTUATOR, type TemplateDefinition, type TemplatePreset, type CurveSpec, type CurveAxis, type LoadQuantity, type SizeEstimate } from './templates';
+export { templates, presets as historyPresets, TemplateParamsError, DEMO_SUPERELASTIC, DEMO_ACTUATOR, type TemplateDefinition, type TemplatePreset, type CurveSpec, type CurveAxis, type LoadQuantity, type MeshSize, type SizeEstimate } from './templates';
 export { parseGmsh, GmshFormatError, type GmshMesh, type GmshOptions } from './mesh/gmsh';

@@ -10,7 +10,7 @@
 import type { ActuatorWireParams, MaterialParams, Model } from '@phaseloop/shared';
 import { actuatorWireParamsSchema } from '@phaseloop/shared';
 import { line } from '../mesh/structured';
-import { circleArea, DEMO_ACTUATOR, modelShell, parseParams, SMA_FIELDS, toModelSegments, type CurveSpec, type SizeEstimate } from './common';
+import { circleArea, DEMO_ACTUATOR, modelShell, parseParams, SMA_FIELDS, toModelSegments, type CurveSpec, type MeshSize } from './common';
 
 const MATERIAL = 'niti';
 /** Spring bar: unit area, length equal to the wire's; E chosen to give the stiffness. */
@@ -59,7 +59,7 @@ export function buildActuatorWire(input: unknown, material: MaterialParams = DEM
   });
 }
 
-export function estimateActuatorWire(input: unknown): SizeEstimate {
+export function estimateActuatorWire(input: unknown): MeshSize {
   const p = parseParams<ActuatorWireParams>(actuatorWireParamsSchema, input);
   const extra = p.biasSpring ? 1 : 0;
   const nodes = p.barElements + 1 + extra;

@@ -15,10 +15,15 @@ export interface LoadQuantity {
 }
 
 /** Nodes, elements and nodal unknowns (before supports) of the model a template will build. */
-export interface SizeEstimate {
+export interface MeshSize {
   nodes: number;
   elements: number;
   dofs: number;
+}
+
+/** Mesh size plus the least number of increments the history asks for (for run-time estimates). */
+export interface SizeEstimate extends MeshSize {
+  increments: number;
 }
 
 /**

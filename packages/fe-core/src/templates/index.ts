@@ -18,7 +18,7 @@ import {
   type TensileCouponParams,
   type WireBendingParams,
 } from '@phaseloop/shared';
-import { parseParams, type CurveSpec, type LoadQuantity, type SizeEstimate } from './common';
+import { parseParams, type CurveSpec, type LoadQuantity, type MeshSize, type SizeEstimate } from './common';
 import { actuatorWireCurves, buildActuatorWire, estimateActuatorWire } from './actuatorWire';
 import { buildPlateWithHole, estimatePlateWithHole, plateWithHoleCurves } from './plateWithHole';
 import { isobaricThermalCycle, pseudoelasticCycle, shapeMemorySequence, stentHistory, tensileTestSequence } from './presets';
@@ -52,6 +52,14 @@ const actuator = (p: unknown) => parseParams<ActuatorWireParams>(actuatorWirePar
 const bending = (p: unknown) => parseParams<WireBendingParams>(wireBendingParamsSchema, p);
 const stent = (p: unknown) => parseParams<StentStrutParams>(stentStrutParamsSchema, p);
 
+/** Adds the history's increment count to a template's mesh size. */
+function withIncrements(estimate: (params: unknown) => MeshSize, schema: TemplateDefinition['paramsSchema']): (params: unknown) => SizeEstimate {
+  return (params) => {
+    const { history } = parseParams<{ history: TemplateSegment[] }>(schema, params);
+    return { ...estimate(params), increments: history.reduce((sum, s) => sum + s.increments, 0) };
+  };
+}
+
 export const templates: Record<TemplateName, TemplateDefinition> = {
   'tensile-coupon': {
     name: 'tensile-coupon',
@@ -60,7 +68,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     paramsSchema: tensileCouponParamsSchema,
     load: () => ({ label: 'strain', unit: '%', initial: 0 }),
     build: buildTensileCoupon,
-    estimateSize: estimateTensileCoupon,
+    estimateSize: withIncrements(estimateTensileCoupon, tensileCouponParamsSchema),
     presets: {
       tensileTest: { title: 'Tension test: load to the peak strain (6 %) and unload (ASTM F2516 sequence)', segments: (p) => tensileTestSequence({ peak: coupon(p).peakStrain }) },
       pseudoelastic: { title: 'Pseudoelastic cycle at the test temperature', segments: (p) => pseudoelasticCycle({ peak: coupon(p).peakStrain, temperature: coupon(p).testTemperature }) },
@@ -74,7 +82,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     paramsSchema: actuatorWireParamsSchema,
     load: () => ({ label: 'weight', unit: 'N', initial: 0 }),
     build: buildActuatorWire,
-    estimateSize: estimateActuatorWire,
+    estimateSize: withIncrements(estimateActuatorWire, actuatorWireParamsSchema),
     presets: {
       isobaric: {
         title: 'Isobaric thermal cycles: hang the weight hot, cool, heat',
@@ -100,7 +108,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     paramsSchema: wireBendingParamsSchema,
     load: () => ({ label: 'deflection', unit: 'mm', initial: 0 }),
     build: buildWireBending,
-    estimateSize: estimateWireBending,
+    estimateSize: withIncrements(estimateWireBending, wireBendingParamsSchema),
     presets: {
       pseudoelastic: { title: 'Deflect by 5 % of the span and release', segments: (p) => pseudoelasticCycle({ peak: 0.05 * bending(p).span, increments: 40 }) },
     },
@@ -113,7 +121,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     paramsSchema: stentStrutParamsSchema,
     load: (p) => ({ label: 'ring diameter', unit: 'mm', initial: stent(p).expandedDiameter }),
     build: buildStentStrut,
-    estimateSize: estimateStentStrut,
+    estimateSize: withIncrements(estimateStentStrut, stentStrutParamsSchema),
     presets: {
       deployment: {
         title: 'Crimp → release → body temperature → pulsatile cycles',
@@ -132,7 +140,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     paramsSchema: plateWithHoleParamsSchema,
     load: () => ({ label: 'remote stress', unit: 'MPa', initial: 0 }),
     build: buildPlateWithHole,
-    estimateSize: estimatePlateWithHole,
+    estimateSize: withIncrements(estimatePlateWithHole, plateWithHoleParamsSchema),
     presets: {
       tension: { title: 'Remote tension of 100 MPa in one increment', segments: () => [{ name: 'remote tension', duration: 1, load: 100, increments: 1 }] },
     },
@@ -140,6 +148,6 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
   },
 };
 
-export { TemplateParamsError, type CurveSpec, type CurveAxis, type LoadQuantity, type SizeEstimate, type TemplateIssue } from './common';
+export { TemplateParamsError, type CurveSpec, type CurveAxis, type LoadQuantity, type MeshSize, type SizeEstimate, type TemplateIssue } from './common';
 export { DEMO_ACTUATOR, DEMO_SUPERELASTIC } from './common';
 export * as presets from './presets';

@@ -7,7 +7,7 @@
 import type { MaterialParams, Model, PlateWithHoleParams } from '@phaseloop/shared';
 import { plateWithHoleParamsSchema } from '@phaseloop/shared';
 import { quarterPlateWithHole } from '../mesh/structured';
-import { blockNodes, cellsPerQuad, modelShell, parseParams, sideNodes, toModelSegments, type CurveSpec, type SizeEstimate } from './common';
+import { blockNodes, cellsPerQuad, modelShell, parseParams, sideNodes, toModelSegments, type CurveSpec, type MeshSize } from './common';
 
 /** Demo steel-like elastic plate: the verification is about geometry, not the alloy. */
 export const PLATE_DEFAULT_MATERIAL: MaterialParams = { model: 'linear-elastic', E: 200000, nu: 0.3, alpha: 0, T_ref: 20 };
@@ -43,7 +43,7 @@ export function buildPlateWithHole(input: unknown, material: MaterialParams = PL
   });
 }
 
-export function estimatePlateWithHole(input: unknown): SizeEstimate {
+export function estimatePlateWithHole(input: unknown): MeshSize {
   const p = parseParams<PlateWithHoleParams>(plateWithHoleParamsSchema, input);
   const t = p.elementType;
   const nodes = 2 * blockNodes(p.cellsAround, p.cellsRadial, t) - sideNodes(p.cellsRadial, t);

@@ -19,7 +19,7 @@
 import type { MaterialParams, Model, StentStrutParams } from '@phaseloop/shared';
 import { stentStrutParamsSchema, strutEndTravel } from '@phaseloop/shared';
 import { arc, meshBlocks, straight, type Block, type MeshPart } from '../mesh/structured';
-import { blockNodes, deg, DEMO_SUPERELASTIC, modelShell, parseParams, sideNodes, SMA_FIELDS, toModelSegments, type CurveSpec, type SizeEstimate } from './common';
+import { blockNodes, deg, DEMO_SUPERELASTIC, modelShell, parseParams, sideNodes, SMA_FIELDS, toModelSegments, type CurveSpec, type MeshSize } from './common';
 
 const MATERIAL = 'niti';
 
@@ -117,7 +117,7 @@ export function buildStentStrut(input: unknown, material: MaterialParams = DEMO_
   });
 }
 
-export function estimateStentStrut(input: unknown): SizeEstimate {
+export function estimateStentStrut(input: unknown): MeshSize {
   const p = parseParams<StentStrutParams>(stentStrutParamsSchema, input);
   const t = p.elementType;
   const nodes = blockNodes(p.cellsAroundCrown, p.cellsAcross, t) + blockNodes(p.cellsAlongStrut, p.cellsAcross, t) - sideNodes(p.cellsAcross, t);

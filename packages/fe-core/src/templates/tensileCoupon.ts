@@ -13,7 +13,7 @@
 import type { MaterialParams, Model, TensileCouponParams } from '@phaseloop/shared';
 import { tensileCouponParamsSchema } from '@phaseloop/shared';
 import { arc, line, meshBlocks, straight, type Block, type MeshPart } from '../mesh/structured';
-import { blockNodes, circleArea, DEMO_SUPERELASTIC, modelShell, parseParams, sideNodes, SMA_FIELDS, toModelSegments, type CurveSpec, type SizeEstimate } from './common';
+import { blockNodes, circleArea, DEMO_SUPERELASTIC, modelShell, parseParams, sideNodes, SMA_FIELDS, toModelSegments, type CurveSpec, type MeshSize } from './common';
 
 const MATERIAL = 'niti';
 
@@ -133,7 +133,7 @@ function buildStrip(p: TensileCouponParams, material: MaterialParams): Model {
   });
 }
 
-export function estimateTensileCoupon(input: unknown): SizeEstimate {
+export function estimateTensileCoupon(input: unknown): MeshSize {
   const p = parseParams<TensileCouponParams>(tensileCouponParamsSchema, input);
   if (p.form !== 'strip') return { nodes: p.barElements + 1, elements: p.barElements, dofs: 2 * (p.barElements + 1) };
   const c = stripLayout(p).cells;

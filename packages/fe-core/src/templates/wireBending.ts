@@ -9,7 +9,7 @@
 import type { MaterialParams, Model, WireBendingParams } from '@phaseloop/shared';
 import { wireBendingParamsSchema } from '@phaseloop/shared';
 import { line } from '../mesh/structured';
-import { DEMO_SUPERELASTIC, modelShell, parseParams, SMA_FIELDS, toModelSegments, type CurveSpec, type SizeEstimate } from './common';
+import { DEMO_SUPERELASTIC, modelShell, parseParams, SMA_FIELDS, toModelSegments, type CurveSpec, type MeshSize } from './common';
 
 const MATERIAL = 'niti';
 
@@ -54,7 +54,7 @@ export function buildWireBending(input: unknown, material: MaterialParams = DEMO
   });
 }
 
-export function estimateWireBending(input: unknown): SizeEstimate {
+export function estimateWireBending(input: unknown): MeshSize {
   const p = parseParams<WireBendingParams>(wireBendingParamsSchema, input);
   const n = elementCount(p);
   return { nodes: n + 1, elements: n, dofs: 3 * (n + 1) };
