@@ -333,6 +333,22 @@ describe('Lagoudas 2012: consistent tangent against finite differences', () => {
     }
   });
 
+  it('at vanishing deviatoric stress (stress-free cooling through Ms0): finite, consistent tangent', () => {
+    // σ_r regularises Λ = (3/2)H σ'/σ̄_r, so the deviatoric stiffness stays positive while martensite forms at σ' ≈ 0.
+    const hot = new Float64Array(LAGOUDAS2012_STATE_SIZE);
+    m.initState(hot, 0, 30);
+    const Tc = 2; // between Ms0 = 12 and Mf0 = −6
+    const tiny = Float64Array.from(dir, (d) => d * 1e-7);
+    const state = new Float64Array(LAGOUDAS2012_STATE_SIZE);
+    const out = createMaterialPointOutput();
+    m.update({ strain: tiny, strainOld: new Float64Array(6), temperature: Tc, temperatureOld: 30 }, hot, 0, state, 0, out);
+    expect(out.ok, out.message).toBe(true);
+    expect(state[6]).toBeGreaterThan(0.3);
+    expect(out.tangent[35]).toBeGreaterThan(0); // shear stiffness
+    const err = tangentErrorSolid(m, { strain: tiny, strainOld: new Float64Array(6), temperature: Tc, temperatureOld: 30 }, hot, 1e-10);
+    expect(err).toBeLessThan(1e-5);
+  });
+
   it('is non-symmetric when D ≠ 0 and H depends on stress (and in reverse)', () => {
     for (const [strain, old] of [[scaled(0.03), mid], [scaled(0.016), mid]] as const) {
       const t = step(strain, old).out.tangent;
