@@ -2,6 +2,9 @@
  * Material-point driver input (DRIVER.json of `npm run material-point`): a material, the control
  * variable and a path of points. `value` is the axial strain (strain control) or the axial stress
  * in MPa (stress control) at the end of each leg; temperature (°C) varies linearly along a leg.
+ * `increments` per leg defaults to 100. The point starts virgin and stress-free at the first
+ * point's temperature; strain is measured from that state; a non-zero first value is reached by
+ * an extra first leg (its `increments`, default 20). Leg k spans time k−1 … k in the CSV.
  */
 import { z } from 'zod';
 import { materialParamsSchema } from './materials';
