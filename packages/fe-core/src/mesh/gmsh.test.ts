@@ -205,6 +205,16 @@ describe('Gmsh import, format 4.1', () => {
     expect(pullRight(mesh, 1, 50, E)).toBeCloseTo((50 * 2) / E, 12);
   });
 
+  it('skips sections it does not need and reads parametric node blocks', () => {
+    const l = RECT_41.trimEnd().split('\n');
+    // Parametric block: each coordinate line carries x y z then the parametric u.
+    const coords = l.slice(24, 30).map((c) => `${c} 0.5`);
+    const text = [...l.slice(0, 15), '$Comments', 'made by hand', '$EndComments', ...l.slice(15, 17), '2 1 1 6', ...l.slice(18, 24), ...coords, ...l.slice(30)].join('\n');
+    const mesh = parseGmsh(text);
+    expect(mesh.nodes).toEqual(parseGmsh(RECT_41).nodes);
+    expect(mesh.edgeSets).toEqual(parseGmsh(RECT_41).edgeSets);
+  });
+
   it('gives the same model as the 2.2 file', () => {
     const a = parseGmsh(RECT_22);
     const b = parseGmsh(RECT_41);

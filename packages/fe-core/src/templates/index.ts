@@ -18,9 +18,9 @@ import {
   type TensileCouponParams,
   type WireBendingParams,
 } from '@phaseloop/shared';
-import { parseParams, type CurveSpec, type LoadQuantity, type MeshSize, type SizeEstimate } from './common';
+import { DEMO_ACTUATOR, DEMO_SUPERELASTIC, parseParams, type CurveSpec, type LoadQuantity, type MeshSize, type SizeEstimate } from './common';
 import { actuatorWireCurves, buildActuatorWire, estimateActuatorWire } from './actuatorWire';
-import { buildPlateWithHole, estimatePlateWithHole, plateWithHoleCurves } from './plateWithHole';
+import { buildPlateWithHole, estimatePlateWithHole, PLATE_DEFAULT_MATERIAL, plateWithHoleCurves } from './plateWithHole';
 import { isobaricThermalCycle, pseudoelasticCycle, shapeMemorySequence, stentHistory, tensileTestSequence } from './presets';
 import { buildStentStrut, estimateStentStrut, stentStrutCurves } from './stentStrut';
 import { buildTensileCoupon, estimateTensileCoupon, tensileCouponCurves } from './tensileCoupon';
@@ -40,6 +40,8 @@ export interface TemplateDefinition {
   paramsSchema: typeof tensileCouponParamsSchema | typeof actuatorWireParamsSchema | typeof wireBendingParamsSchema | typeof stentStrutParamsSchema | typeof plateWithHoleParamsSchema;
   /** What `load` in the history means (and its value before the first segment). */
   load(params: unknown): LoadQuantity;
+  /** Material used when `build` is given none (demo values, never a real alloy's data). */
+  defaultMaterial: MaterialParams;
   /** Model document ready for parseModel/buildProblem; throws TemplateParamsError on bad parameters. */
   build(params: unknown, material?: MaterialParams): Model;
   estimateSize(params: unknown): SizeEstimate;
@@ -67,6 +69,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     description: 'Wire or tube as a bar, or a flat dogbone strip in plane stress (quarter model), pulled to a strain and released under displacement control.',
     paramsSchema: tensileCouponParamsSchema,
     load: () => ({ label: 'strain', unit: '%', initial: 0 }),
+    defaultMaterial: DEMO_SUPERELASTIC,
     build: buildTensileCoupon,
     estimateSize: withIncrements(estimateTensileCoupon, tensileCouponParamsSchema),
     presets: {
@@ -81,6 +84,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     description: 'A wire carrying a constant weight, cooled and heated through its transformation; optional linear bias spring.',
     paramsSchema: actuatorWireParamsSchema,
     load: () => ({ label: 'weight', unit: 'N', initial: 0 }),
+    defaultMaterial: DEMO_ACTUATOR,
     build: buildActuatorWire,
     estimateSize: withIncrements(estimateActuatorWire, actuatorWireParamsSchema),
     presets: {
@@ -107,6 +111,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     description: 'A wire as a fibre beam in three-point bending or as a cantilever, deflected and released.',
     paramsSchema: wireBendingParamsSchema,
     load: () => ({ label: 'deflection', unit: 'mm', initial: 0 }),
+    defaultMaterial: DEMO_SUPERELASTIC,
     build: buildWireBending,
     estimateSize: withIncrements(estimateWireBending, wireBendingParamsSchema),
     presets: {
@@ -120,6 +125,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     description: 'Half of a V-shaped strut unit (strut and crown) in plane stress with symmetry conditions: crimp, release, body temperature, pulsatile cycles.',
     paramsSchema: stentStrutParamsSchema,
     load: (p) => ({ label: 'ring diameter', unit: 'mm', initial: stent(p).expandedDiameter }),
+    defaultMaterial: DEMO_SUPERELASTIC,
     build: buildStentStrut,
     estimateSize: withIncrements(estimateStentStrut, stentStrutParamsSchema),
     presets: {
@@ -139,6 +145,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
     description: 'Quarter of a plate with a circular hole under remote tension; compare the hole-edge stress with Kirsch (3σ).',
     paramsSchema: plateWithHoleParamsSchema,
     load: () => ({ label: 'remote stress', unit: 'MPa', initial: 0 }),
+    defaultMaterial: PLATE_DEFAULT_MATERIAL,
     build: buildPlateWithHole,
     estimateSize: withIncrements(estimatePlateWithHole, plateWithHoleParamsSchema),
     presets: {
