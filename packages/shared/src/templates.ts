@@ -71,7 +71,7 @@ export const tensileCouponParamsSchema = z
     elementType: z.enum(ELEMENT_2D).default('q4-eas').describe('choice · strip elements (Q4 with enhanced strains, or 8-node quadratic)'),
     cellsAcross: count('cellsAcross', 2, 1, 200, 'strip elements across half the gauge width'),
     testTemperature: temperature('testTemperature', 37, 'test temperature'),
-    peakStrain: num('peakStrain').positive({ error: 'peakStrain must be > 0 %' }).max(20, { error: 'peakStrain must be ≤ 20 %' }).default(6).describe('% · strain of the load/unload preset'),
+    peakStrain: num('peakStrain').positive({ error: 'peakStrain must be > 0 %' }).max(20, { error: 'peakStrain must be ≤ 20 %' }).default(6).describe('% · peak strain of the presets (ASTM F2516 loads to 6 %)'),
     history: history([
       { name: 'load to 6 %', load: 6, increments: 60 },
       { name: 'unload', load: 0, increments: 60 },
@@ -93,7 +93,7 @@ export const actuatorWireParamsSchema = z
     length: length('length', 100, 'wire length'),
     diameter: length('diameter', 0.25, 'wire diameter'),
     barElements: count('barElements', 4, 1, 1000, 'bar elements along the wire'),
-    weight: num('weight').min(0, { error: 'weight must be ≥ 0 N' }).default(7).describe('N · hanging weight (force held during the thermal cycles)'),
+    weight: num('weight').min(0, { error: 'weight must be ≥ 0 N' }).default(7).describe('N · hanging weight held during the thermal cycles (used by the presets; the history sets the applied value)'),
     biasSpring: z.boolean().default(false).describe('yes/no · a linear spring that pulls back as the wire stretches'),
     springStiffness: num('springStiffness').positive({ error: 'springStiffness must be > 0 N/mm' }).default(1).describe('N/mm · bias spring stiffness'),
     springPreload: num('springPreload').min(0, { error: 'springPreload must be ≥ 0 N' }).default(0).describe('N · bias spring force on the wire at the start'),
