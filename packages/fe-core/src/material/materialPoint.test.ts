@@ -147,4 +147,33 @@ describe('material-point CLI', () => {
       expect(r.stderr).toMatch(pattern);
     }
   });
+
+  it('CSV of the CLI reproduces the closed-form transformation stresses of both models', () => {
+    const parse = (file: string) => {
+      const [head, ...lines] = readFileSync(file, 'utf8').trim().split('\n');
+      const cols = head.split(',');
+      return lines.map((l) => Object.fromEntries(l.split(',').map((v, i) => [cols[i], Number(v)])) as Record<string, number>);
+    };
+    // Lagoudas 2012, constant H, E_A = E_M, n = 1 at 50 °C: forward start C_M(T − Ms0)
+    const lag = { model: 'lagoudas2012', E_A: 58000, E_M: 58000, nu: 0.3, Ms0: 15, Mf0: 0, As0: 20, Af0: 35, C_M: 6, C_A: 7.5, sigma_star: 200, H_min: 0.04, H_sat: 0.04, k_t: 0 };
+    const out1 = join(dir, 'lag.csv');
+    const r1 = cli({ material: lag, control: 'stress', path: [{ value: 0, temperature: 50 }, { value: 320, temperature: 50, increments: 320 }] }, out1);
+    expect(r1.status, r1.stderr).toBe(0);
+    const rows1 = parse(out1);
+    const firstXi = rows1.find((r) => r.xi > 0)!;
+    // stress control in 1 MPa steps: the first transforming row is the first stress above C_M(T − Ms0) = 210
+    expect(firstXi.stress).toBeGreaterThan(210);
+    expect(firstXi.stress).toBeLessThanOrEqual(211 + 1e-9);
+    const done = rows1.find((r) => r.xi >= 1)!;
+    expect(done.stress).toBeGreaterThanOrEqual(6 * 50);
+    expect(done.stress).toBeLessThanOrEqual(6 * 50 + 1 + 1e-9);
+    // Souza–Auricchio at 37 °C: forward start √(3/2)(R + β(T − T0))
+    const out2 = join(dir, 'souza.csv');
+    const r2 = cli({ ...good, control: 'stress', path: [{ value: 0, temperature: 37 }, { value: 400, temperature: 37, increments: 400 }] }, out2);
+    expect(r2.status, r2.stderr).toBe(0);
+    const start = Math.sqrt(1.5) * (55 + 6 * 37);
+    const first2 = parse(out2).find((r) => r.xi > 0)!;
+    expect(first2.stress).toBeGreaterThan(start);
+    expect(first2.stress).toBeLessThanOrEqual(start + 1 + 1e-9);
+  });
 });
