@@ -16,6 +16,7 @@ export default defineConfig({
           fileParallelism: false,
         },
       },
+      { test: { name: 'web', root: 'apps/web', include: ['src/**/*.test.ts'] } },
       { test: { name: 'worker', root: 'apps/worker', include: ['src/**/*.test.ts'], testTimeout: 60_000 } },
       {
         test: {

@@ -6,6 +6,14 @@ set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 cd "$ROOT"
 shopt -s nullglob
+# The CHOLMOD reference (../shared/bench/cholmod-ref) is only a fair anchor with an optimised BLAS:
+# libsuitesparse-dev alone brings the reference BLAS, several times slower on large fronts.
+if command -v apt-get >/dev/null && ! dpkg -s libopenblas0-serial >/dev/null 2>&1; then
+  echo "bench: installing libopenblas0-serial (optimised BLAS for the CHOLMOD reference)"
+  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq libopenblas0-serial >/dev/null 2>&1 ||
+    { apt-get update -qq >/dev/null 2>&1 && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq libopenblas0-serial >/dev/null 2>&1; } ||
+    echo "bench: could not install libopenblas0-serial; CHOLMOD times will use the reference BLAS" >&2
+fi
 if [[ $# -gt 0 ]]; then
   benches=()
   for name in "$@"; do benches+=("bench/${name%.bench.ts}.bench.ts"); done
