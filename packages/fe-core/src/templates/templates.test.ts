@@ -353,6 +353,22 @@ describe('SMA cycles through the templates (Lagoudas 2012)', () => {
     }
   });
 
+  it('stent strut cell, demo superelastic material: crimp → release → body temperature → pulsatile cycle', () => {
+    const def = templates['stent-strut'];
+    const base = { template: 'stent-strut', pulsatileCycles: 1, cellsAcross: 2, cellsAlongStrut: 8, cellsAroundCrown: 5 };
+    const history = def.presets.deployment.segments(base).map((s) => ({ ...s, increments: s.name === 'crimp' || s.name === 'release' ? 25 : 4 }));
+    const { result } = solve(def.build({ ...base, history }));
+    const end = (name: string) => result.frames.filter((f) => f.segmentName === name).at(-1)!;
+    const xiMax = (f: Frame) => Math.max(...f.pointXi);
+    // Crimping below Af0 + σ/C transforms the crown; releasing reverses part of it.
+    expect(xiMax(end('crimp'))).toBeGreaterThan(0.1);
+    expect(xiMax(end('release'))).toBeLessThan(xiMax(end('crimp')));
+    // Warming at a held diameter raises the transformation stresses (Clausius–Clapeyron, slope
+    // C_A > 0): martensite reverts and the ring pushes outwards harder.
+    expect(xiMax(end('body temperature'))).toBeLessThan(xiMax(end('release')));
+    expect(-end('body temperature').history['strutEnd.Fx']).toBeGreaterThan(-end('release').history['strutEnd.Fx']);
+  });
+
   it('default demo materials complete the default histories (coupon wire, actuator wire)', () => {
     for (const name of ['tensile-coupon', 'actuator-wire'] as const) {
       const { last } = solve(templates[name].build({ template: name }));
