@@ -96,7 +96,7 @@ export const templates: Record<TemplateName, TemplateDefinition> = {
         },
       },
       shapeMemory: {
-        title: 'Shape-memory sequence: cool, load and unload cold, heat to recover, cool',
+        title: 'Shape-memory sequence: cool, load and unload cold, heat to recover, cool (needs a Souza–Auricchio material)',
         segments: (p) => {
           const a = actuator(p);
           return shapeMemorySequence({ peak: a.weight, low: a.lowTemperature, high: a.highTemperature });

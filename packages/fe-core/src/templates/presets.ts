@@ -50,7 +50,9 @@ export function isobaricThermalCycle(o: { load: number; low: number; high: numbe
 
 /**
  * Shape-memory sequence: cool stress-free to `low`, load to `peak` and unload there, then heat
- * to `high` (the shape recovers) and cool back to `low`.
+ * to `high` (the shape recovers) and cool back to `low`. Needs a material that reorients
+ * martensite below Mf (Souza–Auricchio): with the phase-fraction model (Lagoudas 2012) loading
+ * self-accommodated martensite stays elastic and nothing is left to recover.
  */
 export function shapeMemorySequence(o: { peak: number; low: number; high: number; increments?: number }): TemplateSegment[] {
   const n = o.increments ?? 60;

@@ -353,6 +353,26 @@ describe('SMA cycles through the templates (Lagoudas 2012)', () => {
     }
   });
 
+  it('actuator wire, shape-memory sequence (Souza–Auricchio): residual strain and free recovery temperatures', () => {
+    // The phase-fraction model cannot reorient martensite below Mf, so the shape-memory
+    // sequence uses the transformation-strain model (sma-models.md §2).
+    const s = { R: 50, h: 500, beta: 5, T0: 20, eps_L: 0.05 };
+    const material: MaterialParams = { model: 'souza-auricchio', E: 50000, nu: 0.3, alpha: 0, T_ref: 20, ...s, asymmetry: 0 };
+    const L = 100;
+    const history = presets.shapeMemorySequence({ peak: 6, low: 10, high: 60, increments: 250 });
+    const { result } = solve(templates['actuator-wire'].build({ template: 'actuator-wire', length: L, lowTemperature: 10, highTemperature: 60, history }, material));
+    const source = 'Souza et al. (1998) / Auricchio & Petrini (2004) uniaxial closed forms';
+    const end = (name: string) => result.frames.filter((f) => f.segmentName === name).at(-1)!;
+    // After loading past saturation and unloading below T0, the strain left is √(2/3)·ε_L.
+    const residual = Math.sqrt(2 / 3) * s.eps_L;
+    check({ suite: SUITE, name: 'actuator wire, shape memory: residual strain after unloading', computed: end('unload').history['stroke.ux'] / L, target: residual, unit: '–', tolerance: 1e-6, source, tag: 'closed' });
+    // Free recovery on heating: starts at T0 + (R − hε_L)/β, ends at T0 + R/β (strain linear in T).
+    const heat = result.frames.filter((f) => f.segmentName === 'heat (recovery)').map((f): [number, number] => [f.history['stroke.temperature'], f.history['stroke.ux'] / L / residual]);
+    check({ suite: SUITE, name: 'actuator wire, shape memory: free recovery starts', computed: where(heat, 1), target: s.T0 + (s.R - s.h * s.eps_L) / s.beta, unit: '°C', tolerance: 0.05, absolute: true, source, tag: 'closed' });
+    check({ suite: SUITE, name: 'actuator wire, shape memory: free recovery ends', computed: where(heat, 0), target: s.T0 + s.R / s.beta, unit: '°C', tolerance: 0.05, absolute: true, source, tag: 'closed' });
+    expect(Math.abs(end('cool back').history['stroke.ux'])).toBeLessThan(1e-9);
+  });
+
   it('stent strut cell, demo superelastic material: crimp → release → body temperature → pulsatile cycle', () => {
     const def = templates['stent-strut'];
     const base = { template: 'stent-strut', pulsatileCycles: 1, cellsAcross: 2, cellsAlongStrut: 8, cellsAroundCrown: 5 };
