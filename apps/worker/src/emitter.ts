@@ -38,9 +38,24 @@ export interface RunEventSink {
   log(e: RunLogEvent): void;
 }
 
+/**
+ * The emitter fires each NOTIFY without waiting for the previous one, and a pool runs them on
+ * several connections at once, so a busy machine can deliver iteration events out of order. One
+ * query at a time keeps the order the solver produced them in.
+ */
+function oneQueryAtATime(pool: pg.Pool): pg.Pool {
+  let last: Promise<unknown> = Promise.resolve();
+  const query = (text: string, values?: unknown[]) => {
+    const next = last.then(() => pool.query(text, values));
+    last = next.catch(() => undefined);
+    return next;
+  };
+  return { query } as unknown as pg.Pool;
+}
+
 export function createRunEmitter(pool: pg.Pool): RunEventSink {
   stampNamespaceOnPublish();
-  const emitter = new Emitter(pool);
+  const emitter = new Emitter(oneQueryAtATime(pool));
   return {
     status: (e) => void emitter.to(runRoom(e.runId)).emit(RUN_SOCKET_EVENTS.status, e),
     iteration: (e) => void emitter.to(runRoom(e.runId)).emit(RUN_SOCKET_EVENTS.iteration, e),
