@@ -9,7 +9,8 @@
 import { checkCsr } from './csr';
 import { IterativeSolver, type IterativeOptions, type IterativeResult } from './iterative';
 import { SupernodalLu, type LuOptions } from './lu';
-import { frontLayout, SupernodalLdlt, type SupernodalOptions } from './supernodal';
+import { frontLayout } from './multifrontal';
+import { SupernodalLdlt, type SupernodalOptions } from './supernodal';
 import { analyseSymbolic } from './symbolic';
 import type { CsrMatrix, DirectSolverOptions, FactorStats, SparseDirectSolver } from './types';
 

@@ -9,10 +9,10 @@
  * stays tiny there is replaced by ±√ε·|a_jj| (static pivoting) and solve() runs iterative
  * refinement against the original matrix. Values are never symmetrised.
  */
-import { checkCsr, csrResidual, diagonalIndex, norm2, pivotFloors } from './csr';
-import { luFront, PackBuffers, type LuFrontResult } from './kernels';
-import { analyseSymbolic, assemblyMap, FRONT_PAD, type AssemblyMap, type SupernodalSymbolic } from './symbolic';
-import { frontLayout, gemvColumns, unitLowerSolve, type FrontLayout, type SupernodalOptions } from './supernodal';
+import { csrResidual, norm2 } from './csr';
+import { luFront, type LuFrontResult } from './kernels';
+import { analyseWithOptions, MultifrontalCore, type SupernodalOptions } from './multifrontal';
+import type { SupernodalSymbolic } from './symbolic';
 import {
   SingularMatrixError,
   type CsrMatrix,
@@ -32,23 +32,12 @@ export interface LuOptions extends Omit<SupernodalOptions, 'checkSymmetry'> {
 }
 
 export class SupernodalLu implements SparseDirectSolver {
-  private sym: SupernodalSymbolic | null = null;
-  private amap: AssemblyMap | null = null;
-  private layout: FrontLayout | null = null;
-  private diag: Int32Array | null = null;
-  private LU = new Float64Array(0);
+  private core: MultifrontalCore | null = null;
   private piv = new Int32Array(0);
-  private front = new Float64Array(0);
-  private stack = new Float64Array(0);
-  private stackOff = new Int32Array(0);
-  private floors = new Float64Array(0);
-  private floorLocal = new Float64Array(0);
+  private localPiv = new Int32Array(0);
   private perturbLocal = new Float64Array(0);
-  private work = new Float64Array(0);
-  private tmp = new Float64Array(0);
   private resid = new Float64Array(0);
   private corr = new Float64Array(0);
-  private readonly pack = new PackBuffers();
   private A: CsrMatrix | null = null;
   private perturbed = 0;
   /** Refinement steps taken by the last solve. */
@@ -57,84 +46,39 @@ export class SupernodalLu implements SparseDirectSolver {
   constructor(private readonly options: LuOptions = {}) {}
 
   analyse(A: CsrMatrix, options: DirectSolverOptions = { symmetric: false }): void {
-    checkCsr(A);
-    const sym = analyseSymbolic(A, {
-      coordinates: options.coordinates,
-      coordinateDimension: options.coordinateDimension,
-      leafSize: this.options.leafSize,
-      relax: this.options.relax,
-      ordering: this.options.ordering,
-    });
-    this.analyseFromSymbolic(A, sym);
+    this.analyseFromSymbolic(A, analyseWithOptions(A, options, this.options));
   }
 
   /** Analysis with a symbolic structure computed elsewhere (the factory inspects it first). */
   analyseFromSymbolic(A: CsrMatrix, sym: SupernodalSymbolic): void {
-    this.sym = sym;
-    this.amap = assemblyMap(A, sym, false);
-    this.diag = diagonalIndex(A);
-    const layout = frontLayout(sym, false, 2);
-    this.layout = layout;
+    const core = new MultifrontalCore(A, sym, false);
+    this.core = core;
     const n = A.n;
-    this.LU = new Float64Array(layout.factorSize);
     this.piv = new Int32Array(n);
-    this.front = new Float64Array(layout.frontSize);
-    this.stack = new Float64Array(Math.max(1, layout.stackSize));
-    this.stackOff = new Int32Array(sym.nsuper);
-    this.floors = new Float64Array(n);
-    this.floorLocal = new Float64Array(layout.maxCols);
-    this.perturbLocal = new Float64Array(layout.maxCols);
-    this.work = new Float64Array(n);
-    this.tmp = new Float64Array(layout.maxRows);
+    this.localPiv = new Int32Array(core.layout.maxCols);
+    this.perturbLocal = new Float64Array(core.layout.maxCols);
     this.resid = new Float64Array(n);
     this.corr = new Float64Array(n);
     this.A = null;
   }
 
   factor(A: CsrMatrix): void {
-    const sym = this.sym;
-    const amap = this.amap;
-    const layout = this.layout;
-    if (!sym || !amap || !layout) throw new Error('factor() called before analyse()');
-    if (A.n !== sym.n) throw new Error('factor(): pattern differs from analyse()');
+    const core = this.core;
+    if (!core) throw new Error('factor() called before analyse()');
     this.A = null;
     const tol = this.options.pivotTolerance ?? 1e-12;
-    pivotFloors(A, this.diag!, tol, this.floors);
-    const { nsuper, superStart, rowStart, childStart, children, relIdx, perm } = sym;
-    const { aStart, aSrc, aDst } = amap;
-    const { lOffset } = layout;
-    const F = this.front;
-    const U = this.stack;
-    const LU = this.LU;
-    const Av = A.values;
-    const stackOff = this.stackOff;
-    const floor = this.floorLocal;
+    const { perm } = core.sym;
+    const { lOffset } = core.layout;
+    const { front: F, factors: LU, floorLocal: floor, pack } = core;
     const perturbation = this.perturbLocal;
-    const localPiv = new Int32Array(layout.maxCols);
+    const localPiv = this.localPiv;
+    const piv = this.piv;
     const res: LuFrontResult = { singular: -1, perturbed: 0 };
     const sqrtEps = Math.sqrt(Number.EPSILON);
-    let sp = 0;
     let perturbed = 0;
-    for (let s = 0; s < nsuper; s++) {
-      const f = superStart[s];
-      const k = superStart[s + 1] - f;
-      const r = rowStart[s + 1] - rowStart[s];
-      const m = k + r;
-      const ld = m + FRONT_PAD;
-      for (let j = 0; j < m; j++) F.fill(0, j * ld, j * ld + m);
-      for (let t = aStart[s]; t < aStart[s + 1]; t++) F[aDst[t]] += Av[aSrc[t]];
-      const c0 = childStart[s];
-      const c1 = childStart[s + 1];
-      for (let c = c0; c < c1; c++) {
-        const ch = children[c];
-        extendAddFull(F, ld, U, stackOff[ch], relIdx, rowStart[ch], rowStart[ch + 1] - rowStart[ch]);
-      }
-      if (c1 > c0) sp = stackOff[children[c0]];
-      for (let j = 0; j < k; j++) {
-        floor[j] = this.floors[perm[f + j]];
-        perturbation[j] = Math.max((sqrtEps * floor[j]) / tol, floor[j] * 2);
-      }
-      luFront(F, ld, m, k, localPiv, floor, perturbation, this.pack, res);
+    core.factorFronts(A, tol, (s, f, m, k, ld) => {
+      for (let j = 0; j < k; j++) perturbation[j] = Math.max((sqrtEps * floor[j]) / tol, floor[j] * 2);
+      luFront(F, ld, m, k, localPiv, floor, perturbation, pack, res);
       if (res.singular >= 0) {
         const unknown = perm[f + res.singular];
         throw new SingularMatrixError(
@@ -143,24 +87,22 @@ export class SupernodalLu implements SparseDirectSolver {
         );
       }
       perturbed += res.perturbed;
-      for (let j = 0; j < k; j++) this.piv[f + j] = localPiv[j];
+      for (let j = 0; j < k; j++) piv[f + j] = localPiv[j];
       storeFactors(F, ld, m, k, LU, lOffset[s]);
-      stackOff[s] = sp;
-      sp = pushUpdateFull(F, ld, m, k, U, sp);
-    }
+    });
     this.perturbed = perturbed;
     this.A = A;
   }
 
   solve(bIn: Float64Array, x?: Float64Array): Float64Array {
-    const sym = this.sym;
+    const core = this.core;
     const A = this.A;
-    if (!sym || !A) throw new Error('solve() called before a successful factor()');
-    const n = sym.n;
+    if (!core || !A) throw new Error('solve() called before a successful factor()');
+    const n = core.sym.n;
     const out = x ?? new Float64Array(n);
     // Refinement needs b after x is written: keep a copy when the caller passes the same array.
     const b = bIn === out ? bIn.slice() : bIn;
-    this.solveOnce(b, out);
+    this.solveOnce(core, b, out);
     const maxSteps = this.options.maxRefinement ?? 3;
     // With perturbed pivots the first solution can be far off: refine as long as it pays.
     const tol = this.perturbed > 0 ? 0 : (this.options.refinementTolerance ?? 1e-11);
@@ -168,14 +110,14 @@ export class SupernodalLu implements SparseDirectSolver {
     let rn = norm2(csrResidual(A, out, b, this.resid));
     let steps = 0;
     while (steps < maxSteps && rn > tol * bn) {
-      this.solveOnce(this.resid, this.corr);
+      this.solveOnce(core, this.resid, this.corr);
       for (let i = 0; i < n; i++) this.corr[i] += out[i];
-      const trial = norm2(csrResidual(A, this.corr, b, this.work));
+      const trial = norm2(csrResidual(A, this.corr, b, core.work));
       steps++;
       // Stop when a step no longer helps (the factorisation is as accurate as it gets).
       if (!(trial < rn)) break;
       out.set(this.corr);
-      this.resid.set(this.work);
+      this.resid.set(core.work);
       const gain = trial / rn;
       rn = trial;
       if (gain > 0.5) break;
@@ -185,60 +127,32 @@ export class SupernodalLu implements SparseDirectSolver {
   }
 
   stats(): FactorStats {
-    const sym = this.sym;
-    if (!sym) return { nnzL: 0, flops: 0, supernodes: 0 };
+    const core = this.core;
+    if (!core) return { nnzL: 0, flops: 0, supernodes: 0 };
+    const sym = core.sym;
     // L and U share the pattern; flops of LU are twice those of LDLᵀ.
     return {
       nnzL: sym.nnzL,
       flops: 2 * sym.flops,
       supernodes: sym.nsuper,
-      storedEntries: this.layout!.factorSize,
+      storedEntries: core.layout.factorSize,
       perturbedPivots: this.perturbed,
     };
   }
 
-  private solveOnce(b: Float64Array, out: Float64Array): void {
-    const { n, perm } = this.sym!;
-    const y = this.work;
+  private solveOnce(core: MultifrontalCore, b: Float64Array, out: Float64Array): void {
+    const { n, perm } = core.sym;
+    const y = core.work;
     for (let i = 0; i < n; i++) y[i] = b[perm[i]];
-    this.forward(y);
-    this.backward(y);
+    core.forward(y, this.piv);
+    this.backward(core, y);
     for (let i = 0; i < n; i++) out[perm[i]] = y[i];
   }
 
-  private forward(y: Float64Array): void {
-    const { nsuper, superStart, rowStart, rowIdx } = this.sym!;
-    const lOffset = this.layout!.lOffset;
-    const LU = this.LU;
-    const piv = this.piv;
-    const tmp = this.tmp;
-    for (let s = 0; s < nsuper; s++) {
-      const f = superStart[s];
-      const k = superStart[s + 1] - f;
-      const rb = rowStart[s];
-      const r = rowStart[s + 1] - rb;
-      const m = k + r;
-      const o = lOffset[s];
-      for (let j = 0; j < k; j++) {
-        const p = piv[f + j];
-        if (p !== j) {
-          const t = y[f + j];
-          y[f + j] = y[f + p];
-          y[f + p] = t;
-        }
-      }
-      unitLowerSolve(LU, o, m, k, y, f);
-      if (r === 0) continue;
-      tmp.fill(0, 0, r);
-      gemvColumns(LU, o + k, m, r, k, y, f, tmp);
-      for (let i = 0; i < r; i++) y[rowIdx[rb + i]] -= tmp[i];
-    }
-  }
-
-  private backward(y: Float64Array): void {
-    const { nsuper, superStart, rowStart, rowIdx } = this.sym!;
-    const lOffset = this.layout!.lOffset;
-    const LU = this.LU;
+  private backward(core: MultifrontalCore, y: Float64Array): void {
+    const { nsuper, superStart, rowStart, rowIdx } = core.sym;
+    const lOffset = core.layout.lOffset;
+    const LU = core.factors;
     for (let s = nsuper - 1; s >= 0; s--) {
       const f = superStart[s];
       const k = superStart[s + 1] - f;
@@ -266,23 +180,6 @@ export class SupernodalLu implements SparseDirectSolver {
   }
 }
 
-/** F[rel[i], rel[j]] += U[i, j] for one child's full update matrix (column-major, r×r). */
-function extendAddFull(
-  F: Float64Array,
-  ld: number,
-  U: Float64Array,
-  uOff: number,
-  rel: Int32Array,
-  relOff: number,
-  r: number,
-): void {
-  let q = uOff;
-  for (let j = 0; j < r; j++) {
-    const col = rel[relOff + j] * ld;
-    for (let i = 0; i < r; i++) F[rel[relOff + i] + col] += U[q++];
-  }
-}
-
 /** Stores the m×k column block (L11\U11 and L21) and the k×r row block U12 of a factored front. */
 function storeFactors(F: Float64Array, ld: number, m: number, k: number, LU: Float64Array, o: number): void {
   for (let j = 0; j < k; j++) {
@@ -296,12 +193,4 @@ function storeFactors(F: Float64Array, ld: number, m: number, k: number, LU: Flo
     const dst = u + (c - k) * k;
     for (let i = 0; i < k; i++) LU[dst + i] = F[src + i];
   }
-}
-
-function pushUpdateFull(F: Float64Array, ld: number, m: number, k: number, U: Float64Array, sp: number): number {
-  for (let j = k; j < m; j++) {
-    const c = j * ld;
-    for (let i = k; i < m; i++) U[sp++] = F[c + i];
-  }
-  return sp;
 }
