@@ -22,6 +22,7 @@ import { registerRunRoutes } from './runs/runs.routes';
 import { registerCommentRoutes } from './comments/comments.routes';
 import { registerTestDataRoutes } from './testdata/testdata.routes';
 import { registerHealthRoutes } from './health/health.routes';
+import { registerNotificationRoutes } from './notifications/notifications.routes';
 import { API_VERSION } from './version';
 
 export interface BuiltApp {
@@ -91,6 +92,7 @@ export function createApp(ctx: AppContext): BuiltApp {
   registerStudyRoutes(api, ctx);
   registerRunRoutes(api, ctx);
   registerCommentRoutes(api, ctx);
+  registerNotificationRoutes(api, ctx);
 
   const openApi = buildOpenApiDocument(registry, API_VERSION);
   app.get('/api/openapi.json', (_req, res) => {

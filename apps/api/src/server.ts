@@ -17,6 +17,7 @@ import { createMailer, isLoopbackHost, type SmtpSettings } from './mail/mailer';
 import { createApp } from './app';
 import type { AppContext } from './context';
 import { solverVersion } from './version';
+import { startRunAnnouncer } from './notifications/notifications.service';
 
 export interface RunningServer {
   url: string;
@@ -46,6 +47,7 @@ export async function startApiServer(config: Config): Promise<RunningServer> {
   const server = http.createServer(built.app);
   const io = attachSocketServer(server, built, ctx);
   broadcaster.attach(socketBroadcaster(io));
+  const stopAnnouncer = startRunAnnouncer(ctx);
   await new Promise<void>((resolve) => server.listen(config.PORT, config.HOST, resolve));
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.PORT;
@@ -55,6 +57,7 @@ export async function startApiServer(config: Config): Promise<RunningServer> {
     url,
     ctx,
     async close() {
+      stopAnnouncer();
       await new Promise<void>((resolve) => io.close(() => resolve()));
       await queue.stop();
       await sequelize.close();

@@ -4,3 +4,4 @@ export * from './model';
 export * from './materialPoint';
 export * from './studies';
 export * from './templates';
+export * from './notifications';

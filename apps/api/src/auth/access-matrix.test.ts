@@ -208,6 +208,10 @@ const ROUTES: Record<string, RouteRow> = {
   'POST /api/studies/{id}/duplicate': { access: perm('study:write'), prepare: async () => ({ path: `/api/studies/${(await study()).id}/duplicate`, body: {} }) },
   'DELETE /api/studies/{id}': { access: perm('study:write'), prepare: async () => ({ path: `/api/studies/${(await study()).id}` }) },
   'GET /api/queue': { access: { kind: 'user' }, prepare: fixed('/api/queue') },
+  'GET /api/notifications': { access: { kind: 'user' }, prepare: fixed('/api/notifications') },
+  'POST /api/notifications/read': { access: { kind: 'user' }, prepare: fixed('/api/notifications/read', {}) },
+  'GET /api/notifications/settings': { access: { kind: 'user' }, prepare: fixed('/api/notifications/settings') },
+  'PUT /api/notifications/settings': { access: { kind: 'user' }, prepare: fixed('/api/notifications/settings', { emailOnRunEnd: true }) },
   'GET /api/comments': { access: member, prepare: async () => ({ path: `/api/comments?targetType=study&targetId=${(await study()).id}` }) },
   'POST /api/comments': { access: perm('comment:write'), prepare: async () => ({ path: '/api/comments', body: { targetType: 'study', targetId: (await study()).id, body: 'A comment' } }) },
 };

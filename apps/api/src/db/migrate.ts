@@ -6,11 +6,12 @@ import pg from 'pg';
 import { Umzug, type RunnableMigration } from 'umzug';
 import { initialSchema } from './migrations/0001-initial';
 import { runsQueueSchema } from './migrations/0002-runs-queue';
+import { runNotifiedSchema } from './migrations/0003-run-notified';
 
 export type Sql = (text: string, values?: unknown[]) => Promise<pg.QueryResult>;
 export type Migration = RunnableMigration<Sql>;
 
-export const MIGRATIONS: Migration[] = [initialSchema, runsQueueSchema];
+export const MIGRATIONS: Migration[] = [initialSchema, runsQueueSchema, runNotifiedSchema];
 
 /** Arbitrary constant shared by every Phaseloop process that migrates. */
 const MIGRATION_LOCK = 7_384_114;

@@ -7,7 +7,7 @@
 import type { Server as HttpServer, IncomingMessage, ServerResponse } from 'node:http';
 import { Server } from 'socket.io';
 import { createAdapter } from '@socket.io/postgres-adapter';
-import { RUN_SOCKET_EVENTS, runRoom, type RunClientToServerEvents, type RunServerToClientEvents } from '@phaseloop/shared';
+import { RUN_SOCKET_EVENTS, runRoom, userRoom, type RunClientToServerEvents, type RunServerToClientEvents } from '@phaseloop/shared';
 import type { AppContext } from '../context';
 import type { BuiltApp } from '../app';
 import type { SessionUser } from '../auth/session-user';
@@ -48,6 +48,8 @@ export function attachSocketServer(httpServer: HttpServer, built: BuiltApp, ctx:
       socket.disconnect(true);
       return;
     }
+    // Notifications for this user reach every tab they have open, on whichever API instance.
+    void socket.join(userRoom(user.id));
     socket.on(RUN_SOCKET_EVENTS.watch, (req, ack) => {
       const reply = typeof ack === 'function' ? ack : () => undefined;
       const runId = typeof req?.runId === 'string' ? req.runId : '';
