@@ -163,3 +163,25 @@ export interface HealthStatus {
 export interface ItemList<T> {
   items: T[];
 }
+
+/** A run with its progress, as GET /api/runs/:id answers (snapshot only on that route). */
+export interface RunDetail {
+  id: string;
+  projectId: string;
+  studyId: string;
+  number: number;
+  state: RunState;
+  message: string;
+  solverVersion: string;
+  progress: Record<string, unknown>;
+  queuePosition: number | null;
+  submittedBy: string | null;
+  createdAt: IsoDateTime;
+  queuedAt: IsoDateTime | null;
+  startedAt: IsoDateTime | null;
+  finishedAt: IsoDateTime | null;
+  cancelRequested: boolean;
+  attempts: number;
+  reviewStatus: string;
+  snapshot?: Record<string, unknown>;
+}
