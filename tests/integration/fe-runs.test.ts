@@ -102,8 +102,6 @@ beforeAll(async () => {
   const result = runAnalysis(problem);
   expect(result.status).toBe('succeeded');
   reference = { frames: result.frames, vtu: (k) => frameToVtu(problem, result.frames[k]!, parsed.model.output.fields), csv: historyCsv(result.frames) };
-
-  await startFeWorker('fe-w1');
 });
 
 afterAll(async () => {
@@ -149,6 +147,8 @@ describe('a real fe-core run', () => {
     });
     for (const s of sockets) expect(await watch(s, runId)).toEqual({ ok: true });
     const done = sockets.map((s) => waitForState(s, runId, ['succeeded', 'failed', 'cancelled']));
+    // The worker starts only now, so both browsers follow the run from 'queued' on.
+    await startFeWorker('fe-w1');
     const finals = await Promise.all(done);
     await sleep(200);
     for (const s of sockets) s.close();
@@ -226,7 +226,8 @@ describe('a real fe-core run', () => {
     const victim = workers.find((w) => w.id === row.worker_id)!;
     await stopProcess(victim.child, 'SIGKILL');
     workers.splice(workers.indexOf(victim), 1);
-    if (victim === workers[0] || victim.id === 'fe-w1') await startFeWorker('fe-w3');
+    // Two workers again for the next test; the run itself is taken over by the survivor.
+    await startFeWorker('fe-w3');
     const final = await until('the retried run to finish', async () => {
       const r = await runRow(runId);
       return ['succeeded', 'failed', 'cancelled'].includes(r.state) ? r : null;
