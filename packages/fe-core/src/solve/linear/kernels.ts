@@ -107,35 +107,15 @@ export function kernel4x4(
   C[co] -= c03; C[co + 1] -= c13; C[co + 2] -= c23; C[co + 3] -= c33;
 }
 
-/**
- * Lower part of C (n×n at co, leading dimension ldc) −= A·Bᵀ, A and B packed by packRows with kc
- * columns. Blocks straddling the diagonal are computed whole; their strict upper part is scratch.
- */
-export function syrkLower(
-  Ap: Float64Array,
-  Bp: Float64Array,
-  n: number,
-  kc: number,
-  C: Float64Array,
-  co: number,
-  ldc: number,
-): void {
-  const stride = 4 * kc;
-  // Rows in blocks of ROWS_L2 so the A panels in use stay in L2 while every B panel passes.
-  for (let i0 = 0; i0 < n; i0 += ROWS_L2) {
-    const i1 = Math.min(i0 + ROWS_L2, n);
-    for (let j = 0; j < i1; j += 4) {
-      const bo = (j >> 2) * stride;
-      const cj = co + j * ldc;
-      for (let i = j > i0 ? j : i0; i < i1; i += 4) kernel4x4(Ap, (i >> 2) * stride, Bp, bo, kc, C, cj + i, ldc);
-    }
-  }
-}
-
 /** Rows of packed A kept hot per pass (≈ ROWS_L2·kc·8 bytes ≤ L2). */
 const ROWS_L2 = 256;
 
-/** C (nr×nc at co) −= A·B with A packed by packRows (nr rows) and B by packCols (nc columns). */
+/**
+ * C (nr×nc at co, leading dimension ldc) −= A·B over kc terms, A packed by packRows (nr rows) and
+ * B by packRows or packCols (nc columns), in 4×4 tiles. With `lowerOnly` (nr = nc, symmetric
+ * update) only the tiles on or below the diagonal are computed; those straddling it are computed
+ * whole and their strict upper part is scratch.
+ */
 export function gemmPacked(
   Ap: Float64Array,
   nr: number,
@@ -145,14 +125,18 @@ export function gemmPacked(
   C: Float64Array,
   co: number,
   ldc: number,
+  lowerOnly: boolean,
 ): void {
   const stride = 4 * kc;
+  // Rows in blocks of ROWS_L2 so the A panels in use stay in L2 while every B panel passes.
   for (let i0 = 0; i0 < nr; i0 += ROWS_L2) {
     const i1 = Math.min(i0 + ROWS_L2, nr);
-    for (let j = 0; j < nc; j += 4) {
+    const jEnd = lowerOnly ? Math.min(i1, nc) : nc;
+    for (let j = 0; j < jEnd; j += 4) {
       const bo = (j >> 2) * stride;
       const cj = co + j * ldc;
-      for (let i = i0; i < i1; i += 4) kernel4x4(Ap, (i >> 2) * stride, Bp, bo, kc, C, cj + i, ldc);
+      const iStart = lowerOnly && j > i0 ? j : i0;
+      for (let i = iStart; i < i1; i += 4) kernel4x4(Ap, (i >> 2) * stride, Bp, bo, kc, C, cj + i, ldc);
     }
   }
 }
@@ -209,7 +193,7 @@ export function ldltFront(
     const off = p1 + p0 * ld;
     packRows(F, off, ld, nr, kc, buf.a, null);
     packRows(F, off, ld, nr, kc, buf.b, d);
-    syrkLower(buf.a, buf.b, nr, kc, F, p1 + p1 * ld, ld);
+    gemmPacked(buf.a, nr, buf.b, nr, kc, F, p1 + p1 * ld, ld, true);
   }
   return -1;
 }
@@ -243,7 +227,7 @@ function ldltRecursive(
   const off = mid + a * ld;
   packRows(F, off, ld, nr, kc, buf.a, null);
   packRows(F, off, ld, nc, kc, buf.b, d);
-  gemmPacked(buf.a, nr, buf.b, nc, kc, F, mid + mid * ld, ld);
+  gemmPacked(buf.a, nr, buf.b, nc, kc, F, mid + mid * ld, ld, false);
   return ldltRecursive(F, ld, m, mid, b, floor, buf);
 }
 
@@ -261,29 +245,26 @@ function ldltPanel(F: Float64Array, ld: number, m: number, p0: number, p1: numbe
       if (!(Math.abs(d) > floor[j])) return j;
       const inv = 1 / d;
       for (let i = j + 1; i < m; i++) F[cj + i] *= inv;
-      for (let c = j + 1; c < j1; c++) {
-        const t = F[cj + c] * d;
-        if (t === 0) continue;
-        const cc = c * ld;
-        for (let i = c; i < m; i++) F[cc + i] -= F[cj + i] * t;
-      }
+      rank1Columns(F, ld, m, j, d, j + 1, j1);
     }
     if (j1 < p1) {
       if (j1 - j0 === 4) rank4PanelUpdate(F, ld, m, j0, j1, p1);
       else
-        for (let j = j0; j < j1; j++) {
-          const cj = j * ld;
-          const d = F[cj + j];
-          for (let c = j1; c < p1; c++) {
-            const t = F[cj + c] * d;
-            if (t === 0) continue;
-            const cc = c * ld;
-            for (let i = c; i < m; i++) F[cc + i] -= F[cj + i] * t;
-          }
-        }
+        for (let j = j0; j < j1; j++) rank1Columns(F, ld, m, j, F[j * ld + j], j1, p1);
     }
   }
   return -1;
+}
+
+/** Columns c0..c1-1 (rows from their diagonal down) −= L[:, j]·d_j·L[c, j]ᵀ (one factored column). */
+function rank1Columns(F: Float64Array, ld: number, m: number, j: number, d: number, c0: number, c1: number): void {
+  const cj = j * ld;
+  for (let c = c0; c < c1; c++) {
+    const t = F[cj + c] * d;
+    if (t === 0) continue;
+    const cc = c * ld;
+    for (let i = c; i < m; i++) F[cc + i] -= F[cj + i] * t;
+  }
 }
 
 /** Columns j1..p1-1 (rows from their diagonal down) −= L[:, j0..j0+3]·D·L[c, j0..j0+3]ᵀ. */
@@ -396,7 +377,7 @@ function luBlockUpdate(c: LuContext, a: number, mid: number, end: number): void 
   buf.ensure(Math.max(nr, nc), kc);
   packRows(F, mid + a * ld, ld, nr, kc, buf.a, null);
   packCols(F, a + mid * ld, ld, nc, kc, buf.b);
-  gemmPacked(buf.a, nr, buf.b, nc, kc, F, mid + mid * ld, ld);
+  gemmPacked(buf.a, nr, buf.b, nc, kc, F, mid + mid * ld, ld, false);
 }
 
 /** One column of the LU panel: pivot choice, row swap, scaling, update of the panel's later columns. */
