@@ -23,6 +23,8 @@ import { registerCommentRoutes } from './comments/comments.routes';
 import { registerTestDataRoutes } from './testdata/testdata.routes';
 import { registerHealthRoutes } from './health/health.routes';
 import { registerNotificationRoutes } from './notifications/notifications.routes';
+import { registerTokenRoutes } from './tokens/tokens.routes';
+import { bearerTokenAuth } from './tokens/tokens.service';
 import { API_VERSION } from './version';
 
 export interface BuiltApp {
@@ -60,6 +62,7 @@ export function createApp(ctx: AppContext): BuiltApp {
   app.use(sessionMiddleware);
   app.use(passport.initialize());
   app.use(passport.session());
+  app.use('/api', bearerTokenAuth(ctx.pool));
   app.use('/api', csrfProtection);
 
   // Failed sign-ins per address and minute; successful ones do not count.
@@ -93,6 +96,7 @@ export function createApp(ctx: AppContext): BuiltApp {
   registerRunRoutes(api, ctx);
   registerCommentRoutes(api, ctx);
   registerNotificationRoutes(api, ctx);
+  registerTokenRoutes(api, ctx);
 
   const openApi = buildOpenApiDocument(registry, API_VERSION);
   app.get('/api/openapi.json', (_req, res) => {

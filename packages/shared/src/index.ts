@@ -5,3 +5,4 @@ export * from './materialPoint';
 export * from './studies';
 export * from './templates';
 export * from './notifications';
+export * from './tokens';
