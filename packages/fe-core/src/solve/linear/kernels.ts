@@ -37,6 +37,7 @@ export function packRows(
       s += ld;
     }
   }
+  // The ragged last panel is written out apart on purpose: a shared loop would put the zero-padding test in the hot 4-row body.
   if (full < nr) {
     const rem = nr - full;
     let s = off + full;
@@ -184,16 +185,7 @@ export function ldltFront(
     const p1 = Math.min(p0 + BLOCK, k);
     const bad = ldltRecursive(F, ld, m, p0, p1, floor, buf);
     if (bad >= 0) return bad;
-    const nr = m - p1;
-    if (nr <= 0) continue;
-    const kc = p1 - p0;
-    const d = buf.diag(kc);
-    for (let p = 0; p < kc; p++) d[p] = F[(p0 + p) * (ld + 1)];
-    buf.ensure(nr, kc);
-    const off = p1 + p0 * ld;
-    packRows(F, off, ld, nr, kc, buf.a, null);
-    packRows(F, off, ld, nr, kc, buf.b, d);
-    gemmPacked(buf.a, nr, buf.b, nr, kc, F, p1 + p1 * ld, ld, true);
+    if (m > p1) ldltUpdate(F, ld, m, p0, p1, m, true, buf);
   }
   return -1;
 }
@@ -217,18 +209,35 @@ function ldltRecursive(
   const mid = a + Math.max(4, ((b - a) >> 1) & ~3); // a multiple of 4 past a, LEAF ≥ 4 keeps it below b
   const bad = ldltRecursive(F, ld, m, a, mid, floor, buf);
   if (bad >= 0) return bad;
-  // Columns mid..b-1, rows mid..m-1 −= L[mid:m, a:mid]·D·L[mid:b, a:mid]ᵀ.
+  ldltUpdate(F, ld, m, a, mid, b, false, buf);
+  return ldltRecursive(F, ld, m, mid, b, floor, buf);
+}
+
+/**
+ * After columns a..mid-1 are factored: columns mid..end-1, rows mid..m-1 −= L[mid:m, a:mid]·D·
+ * L[mid:end, a:mid]ᵀ; `lowerOnly` for the whole trailing matrix (end = m), of which only the
+ * lower triangle is kept.
+ */
+function ldltUpdate(
+  F: Float64Array,
+  ld: number,
+  m: number,
+  a: number,
+  mid: number,
+  end: number,
+  lowerOnly: boolean,
+  buf: PackBuffers,
+): void {
   const kc = mid - a;
   const nr = m - mid;
-  const nc = b - mid;
+  const nc = end - mid;
   const d = buf.diag(kc);
   for (let p = 0; p < kc; p++) d[p] = F[(a + p) * (ld + 1)];
   buf.ensure(nr, kc);
   const off = mid + a * ld;
   packRows(F, off, ld, nr, kc, buf.a, null);
   packRows(F, off, ld, nc, kc, buf.b, d);
-  gemmPacked(buf.a, nr, buf.b, nc, kc, F, mid + mid * ld, ld, false);
-  return ldltRecursive(F, ld, m, mid, b, floor, buf);
+  gemmPacked(buf.a, nr, buf.b, nc, kc, F, mid + mid * ld, ld, lowerOnly);
 }
 
 /**

@@ -31,6 +31,7 @@ export function unitLowerTransposedSolve(
 }
 
 /** out[0..r) += B·y[f..f+k), B the r×k block at L[o] (leading dimension m); eight columns per pass. */
+// The 8-, 2- and 1-column passes here and in gemvTransposed repeat on purpose: unrolled, they keep the sums in registers.
 export function gemvColumns(
   L: Float64Array,
   o: number,
