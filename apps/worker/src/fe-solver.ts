@@ -23,11 +23,11 @@ export function snapshotModel(snapshot: RunSnapshotForSolver): unknown {
  * does not pass a process's module hooks on to worker threads, so the thread registers tsx itself
  * before importing the entry.
  */
-function startThread(input: ThreadInput): Worker {
+function startThread(): Worker {
   const entry = new URL('./solve-thread.ts', import.meta.url).href;
   const tsxApi = import.meta.resolve('tsx/esm/api');
   const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(entry)}); });`;
-  return new Worker(boot, { eval: true, workerData: input });
+  return new Worker(boot, { eval: true, workerData: null });
 }
 
 export interface FeSolverOptions {
@@ -35,27 +35,49 @@ export interface FeSolverOptions {
   pollMs?: number;
 }
 
+/** One solve at a time per solver (the worker takes one job at a time); the thread is kept between solves. */
 export function createFeCoreSolver(options: FeSolverOptions = {}): RunSolver {
+  let thread: Worker | null = null;
+  const obtain = (): Worker => {
+    if (!thread) {
+      const t = startThread();
+      t.once('exit', () => { if (thread === t) thread = null; });
+      thread = t;
+    }
+    return thread;
+  };
   return {
-    solve: (snapshot, hooks) => solveInThread(snapshotModel(snapshot), hooks, options.pollMs ?? 20),
+    async solve(snapshot, hooks) {
+      const t = obtain();
+      t.ref();
+      try {
+        return await solveInThread(t, snapshotModel(snapshot), hooks, options.pollMs ?? 20);
+      } finally {
+        t.removeAllListeners('message');
+        t.removeAllListeners('error');
+        // An idle thread must not keep the process alive.
+        t.unref();
+      }
+    },
   };
 }
 
-function solveInThread(model: unknown, hooks: SolveHooks, pollMs: number): Promise<SolveOutcome> {
+function solveInThread(thread: Worker, model: unknown, hooks: SolveHooks, pollMs: number): Promise<SolveOutcome> {
   if (model === undefined) return Promise.resolve({ kind: 'failed', message: 'The study has no model to solve (definition.model is missing).' });
   const stopFlag = new SharedArrayBuffer(4);
   const flag = new Int32Array(stopFlag);
   const input: ThreadInput = { model, stopFlag };
-  const thread = startThread(input);
 
   return new Promise<SolveOutcome>((resolve) => {
     // Messages are handled one after another so frames are stored in order before the end.
     let chain: Promise<unknown> = Promise.resolve();
     let settled = false;
+    const finishHooks: (() => void)[] = [];
     const finish = (outcome: SolveOutcome) => {
       if (settled) return;
       settled = true;
       clearInterval(watch);
+      for (const h of finishHooks) h();
       resolve(outcome);
     };
     const watch = setInterval(() => {
@@ -66,14 +88,18 @@ function solveInThread(model: unknown, hooks: SolveHooks, pollMs: number): Promi
 
     thread.on('message', (message: ThreadMessage) => {
       chain = chain.then(() => handle(message)).catch((err: unknown) => {
-        Atomics.store(flag, 0, STOP_NOW);
+        // The thread may still be mid-solve: end it, so no late message reaches the next run.
         finish({ kind: 'failed', message: `Results could not be stored: ${err instanceof Error ? err.message : String(err)}` });
+        void thread.terminate();
       });
     });
     thread.on('error', (err) => finish({ kind: 'failed', message: `The solver stopped with an internal error: ${err.message}` }));
-    thread.on('exit', (code) => {
+    const onExit = (code: number) => {
       void chain.then(() => finish({ kind: 'failed', message: `The solver thread ended unexpectedly (exit code ${code})` }));
-    });
+    };
+    thread.once('exit', onExit);
+    finishHooks.push(() => thread.off('exit', onExit));
+    thread.postMessage(input);
 
     async function handle(message: ThreadMessage): Promise<void> {
       switch (message.type) {

@@ -1,5 +1,5 @@
 /**
- * Runs inside a node:worker_threads Worker: builds the fe-core problem from a resolved model and
+ * Runs inside a node:worker_threads Worker (one per worker process, reused run after run): builds the fe-core problem from a resolved model and
  * solves it synchronously, posting every iteration, cut-back and converged frame to the parent.
  * The parent's thread stays free for the heartbeat, database writes and cancel checks; a cancel
  * reaches this thread through a SharedArrayBuffer flag read between iterations.
@@ -77,8 +77,15 @@ function solve(input: ThreadInput): void {
   });
 }
 
-try {
-  solve(workerData as ThreadInput);
-} catch (err) {
-  post({ type: 'done', status: 'failed', message: `The solver stopped with an internal error: ${err instanceof Error ? err.message : String(err)}` });
+// The thread stays up between runs (starting one costs far more than a small solve); each
+// message from the worker process is one solve.
+function solveSafely(input: ThreadInput): void {
+  try {
+    solve(input);
+  } catch (err) {
+    post({ type: 'done', status: 'failed', message: `The solver stopped with an internal error: ${err instanceof Error ? err.message : String(err)}` });
+  }
 }
+
+parentPort!.on('message', (input: ThreadInput) => solveSafely(input));
+if (workerData) solveSafely(workerData as ThreadInput);
