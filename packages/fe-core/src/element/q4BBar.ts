@@ -10,50 +10,20 @@
  * Plane stress has no volumetric constraint (σ33 = 0 lets the thickness change), so this kernel
  * behaves exactly like q4 there. It does not cure shear locking in bending: use q4-eas for that.
  */
-import { gaussQuad } from '../quadrature/gauss';
-import {
-  ContinuumGeometry,
-  PointCall,
-  accumulate,
-  asContinuum,
-  continuumPointCoordinates,
-  continuumStressState,
-  fillB,
-  geometryProblem,
-  interpolate,
-  multiplyB,
-  strainSize,
-  volumeWeight,
-} from './continuum';
-import { Q4_EDGES, q4Shape } from './q4';
+import { PointCall, accumulate, asContinuum, interpolate, multiplyB, strainSize } from './continuum';
+import { initQ4PointStates, Q4_COLS as COLS, Q4_NQ as NQ, Q4GaussPoints, q4VariantFields } from './q4Points';
 import type { ElementKernel } from './types';
 
-const rule = gaussQuad(2);
-const NQ = rule.count;
-const COLS = 8;
-const g = new ContinuumGeometry(q4Shape);
-const Bq = new Float64Array(NQ * 4 * COLS); // B̄ per Gauss point
+const points = new Q4GaussPoints();
 const vol = new Float64Array(NQ * COLS); // volumetric row b per Gauss point
 const volBar = new Float64Array(COLS);
-const dV = new Float64Array(NQ);
-const Nq = new Float64Array(NQ * 4);
 const CB = new Float64Array(4 * COLS);
 const calls = { 3: new PointCall(3), 4: new PointCall(4) } as const;
 
 export const q4BBar: ElementKernel = {
-  name: 'q4-bbar',
-  sectionKind: 'continuum',
-  nodes: 4,
-  dofsPerNode: 2,
-  edges: Q4_EDGES,
-  shape: q4Shape,
-  rule,
-  stressState: (section) => continuumStressState(section, 'q4-bbar'),
-  pointsPerElement: () => NQ,
+  ...q4VariantFields('q4-bbar'),
   stateSize: (_s, m) => NQ * m,
-  initState(state, offset, _section, material, temperature) {
-    for (let q = 0; q < NQ; q++) material.initState(state, offset + q * material.stateSize, temperature);
-  },
+  initState: initQ4PointStates,
   evaluate(ctx, out) {
     const section = asContinuum(ctx.section, 'q4-bbar');
     const rows = strainSize(section.analysis);
@@ -63,35 +33,32 @@ export const q4BBar: ElementKernel = {
     out.ok = true;
     out.message = '';
     // Pass 1: geometry, standard B, volumetric rows and their volume average.
+    const problem = points.fill(section, ctx.coords, 'q4-bbar');
+    if (problem) {
+      out.ok = false;
+      out.message = problem;
+      return;
+    }
     volBar.fill(0);
     let volume = 0;
+    const normalRows = section.analysis === 'axisymmetric' ? 3 : 2;
     for (let q = 0; q < NQ; q++) {
-      g.at(ctx.coords, rule.points[2 * q], rule.points[2 * q + 1]);
-      const problem = geometryProblem(section, g, 'q4-bbar');
-      if (problem) {
-        out.ok = false;
-        out.message = problem;
-        return;
-      }
-      const B = Bq.subarray(q * 4 * COLS, (q + 1) * 4 * COLS);
-      fillB(section.analysis, g, B);
-      Nq.set(g.N, 4 * q);
-      dV[q] = volumeWeight(section, g, rule.weights[q]);
-      volume += dV[q];
-      const normalRows = section.analysis === 'axisymmetric' ? 3 : 2;
+      const B = points.B[q];
+      const dV = points.dV[q];
+      volume += dV;
       for (let j = 0; j < COLS; j++) {
         let b = 0;
         for (let i = 0; i < normalRows; i++) b += B[i * COLS + j];
         vol[q * COLS + j] = b;
-        volBar[j] += b * dV[q];
+        volBar[j] += b * dV;
       }
     }
     for (let j = 0; j < COLS; j++) volBar[j] /= volume;
     // Pass 2: B̄ = B + (1/m)(b̄ − b) on the normal rows, then the material points.
     const correct = section.analysis !== 'planeStress';
-    const m = section.analysis === 'axisymmetric' ? 3 : 2;
+    const m = normalRows;
     for (let q = 0; q < NQ; q++) {
-      const B = Bq.subarray(q * 4 * COLS, (q + 1) * 4 * COLS);
+      const B = points.B[q];
       if (correct) {
         for (let i = 0; i < m; i++) {
           for (let j = 0; j < COLS; j++) B[i * COLS + j] += (volBar[j] - vol[q * COLS + j]) / m;
@@ -99,12 +66,9 @@ export const q4BBar: ElementKernel = {
       }
       multiplyB(B, rows, COLS, ctx.u, call.strain);
       multiplyB(B, rows, COLS, ctx.uOld, call.strainOld);
-      const N = Nq.subarray(4 * q, 4 * q + 4);
+      const N = points.N[q];
       const res = call.run(ctx, q, interpolate(N, ctx.temperature), interpolate(N, ctx.temperatureOld), out);
-      accumulate(B, rows, COLS, res.stress, res.tangent, dV[q], out, ctx.wantTangent, CB);
+      accumulate(B, rows, COLS, res.stress, res.tangent, points.dV[q], out, ctx.wantTangent, CB);
     }
-  },
-  pointCoordinates(coords, _section, out) {
-    continuumPointCoordinates(q4Shape, rule, coords, out);
   },
 };

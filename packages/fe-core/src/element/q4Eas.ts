@@ -13,36 +13,20 @@
  * K = K_uu − K_uα K_αα⁻¹ K_αu. The converged α is stored after the material points (4 doubles)
  * and is the start of the next increment's iteration.
  */
-import { gaussQuad } from '../quadrature/gauss';
-import {
-  ContinuumGeometry,
-  PointCall,
-  accumulate,
-  asContinuum,
-  continuumPointCoordinates,
-  continuumStressState,
-  fillB,
-  geometryProblem,
-  interpolate,
-  multiplyB,
-  strainSize,
-  volumeWeight,
-} from './continuum';
+import { ContinuumGeometry, PointCall, accumulate, asContinuum, interpolate, multiplyB, strainSize } from './continuum';
 import { luFactor, luSolve } from './dense';
-import { Q4_EDGES, q4Shape } from './q4';
+import { q4Shape } from './q4';
+import { initQ4PointStates, Q4_COLS as NU, Q4_NQ as NQ, Q4GaussPoints, Q4_RULE as rule, q4VariantFields } from './q4Points';
 import type { ContinuumAnalysis, ElementKernel } from './types';
 
-const rule = gaussQuad(2);
-const NQ = rule.count;
-const NU = 8;
 const NA = 4;
 const NT = NU + NA;
 const MAX_LOCAL = 40;
 
-const g = new ContinuumGeometry(q4Shape);
+const g = new ContinuumGeometry(q4Shape); // element centre, for J0
+const points = new Q4GaussPoints();
 const W = new Float64Array(NQ * 4 * NT); // [B | G] per Gauss point
-const dV = new Float64Array(NQ);
-const Nq = new Float64Array(NQ * 4);
+const Wview = Array.from({ length: NQ }, (_, q) => W.subarray(q * 4 * NT, (q + 1) * 4 * NT));
 const ua = new Float64Array(NT);
 const uaOld = new Float64Array(NT);
 const CB = new Float64Array(4 * NT);
@@ -78,18 +62,10 @@ function fillEnhanced(analysis: ContinuumAnalysis, Wq: Float64Array, xi: number,
 }
 
 export const q4Eas: ElementKernel = {
-  name: 'q4-eas',
-  sectionKind: 'continuum',
-  nodes: 4,
-  dofsPerNode: 2,
-  edges: Q4_EDGES,
-  shape: q4Shape,
-  rule,
-  stressState: (section) => continuumStressState(section, 'q4-eas'),
-  pointsPerElement: () => NQ,
+  ...q4VariantFields('q4-eas'),
   stateSize: (_s, m) => NQ * m + NA,
-  initState(state, offset, _section, material, temperature) {
-    for (let q = 0; q < NQ; q++) material.initState(state, offset + q * material.stateSize, temperature);
+  initState(state, offset, section, material, temperature) {
+    initQ4PointStates(state, offset, section, material, temperature);
     state.fill(0, offset + NQ * material.stateSize, offset + NQ * material.stateSize + NA);
   },
   evaluate(ctx, out) {
@@ -109,23 +85,20 @@ export const q4Eas: ElementKernel = {
     inv[1] = -g.J[1] / det0;
     inv[2] = -g.J[2] / det0;
     inv[3] = g.J[0] / det0;
+    const problem = points.fill(section, ctx.coords, 'q4-eas');
+    if (problem) {
+      out.ok = false;
+      out.message = problem;
+      return;
+    }
     for (let q = 0; q < NQ; q++) {
-      const xi = rule.points[2 * q], eta = rule.points[2 * q + 1];
-      g.at(ctx.coords, xi, eta);
-      const problem = geometryProblem(section, g, 'q4-eas');
-      if (problem) {
-        out.ok = false;
-        out.message = problem;
-        return;
-      }
-      const Wq = W.subarray(q * 4 * NT, (q + 1) * 4 * NT);
-      // fillB writes a rows × 8 block; spread it into the rows × 12 layout.
-      fillB(section.analysis, g, CB);
-      for (let r = 0; r < rows; r++) for (let j = 0; j < NU; j++) Wq[r * NT + j] = CB[r * NU + j];
-      const scale = section.analysis === 'axisymmetric' ? (r0 * det0) / (g.x * g.detJ) : det0 / g.detJ;
-      fillEnhanced(section.analysis, Wq, xi, eta, inv, scale);
-      dV[q] = volumeWeight(section, g, rule.weights[q]);
-      Nq.set(g.N, 4 * q);
+      const Wq = Wview[q];
+      // The standard B is rows × 8; spread it into the rows × 12 layout.
+      const B = points.B[q];
+      for (let r = 0; r < rows; r++) for (let j = 0; j < NU; j++) Wq[r * NT + j] = B[r * NU + j];
+      const detJ = points.detJ[q];
+      const scale = section.analysis === 'axisymmetric' ? (r0 * det0) / (points.x[q] * detJ) : det0 / detJ;
+      fillEnhanced(section.analysis, Wq, rule.points[2 * q], rule.points[2 * q + 1], inv, scale);
     }
 
     ua.set(ctx.u);
@@ -145,14 +118,14 @@ export const q4Eas: ElementKernel = {
       let stressMax = 0;
       let modulus = 0;
       for (let q = 0; q < NQ; q++) {
-        const Wq = W.subarray(q * 4 * NT, (q + 1) * 4 * NT);
+        const Wq = Wview[q];
         multiplyB(Wq, rows, NT, ua, call.strain);
         multiplyB(Wq, rows, NT, uaOld, call.strainOld);
         for (let r = 0; r < rows; r++) strainScale = Math.max(strainScale, Math.abs(call.strain[r]));
-        const N = Nq.subarray(4 * q, 4 * q + 4);
+        const N = points.N[q];
         const res = call.run(ctx, q, interpolate(N, ctx.temperature), interpolate(N, ctx.temperatureOld), out);
         if (!out.ok) return;
-        accumulate(Wq, rows, NT, res.stress, res.tangent, dV[q], full, true, CB);
+        accumulate(Wq, rows, NT, res.stress, res.tangent, points.dV[q], full, true, CB);
         // Stress over modulus also counts as a strain size (thermal or inelastic strain with
         // zero total strain, e.g. the first iteration of a heated step).
         for (let r = 0; r < rows; r++) {
@@ -220,8 +193,5 @@ export const q4Eas: ElementKernel = {
         out.K[i * NU + j] = s;
       }
     }
-  },
-  pointCoordinates(coords, _section, out) {
-    continuumPointCoordinates(q4Shape, rule, coords, out);
   },
 };
