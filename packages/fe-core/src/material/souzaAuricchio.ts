@@ -19,8 +19,24 @@
  *    non-proportional loading are the same equation.
  *  - the consistent tangent comes from the linearisation of the full residual in (eᵗʳ, Δζ[, γ]).
  *
- * Tension–compression asymmetry (Lode-angle term) is not implemented: `asymmetry` must be 0.
+ * Tension–compression asymmetry (optional, parameters tc_ratio = r and lode_shape = γ): the norm
+ * ‖eᵗʳ‖ in the free energy and in the constraint is replaced by the Lode-angle (J₃) gauge
+ * g(eᵗʳ) = ‖eᵗʳ‖ K(cos 3θ) of Bigoni & Piccolroaz (2004) (souzaAuricchioLode.ts), normalised so
+ * that g = ‖eᵗʳ‖ in uniaxial tension and g = r‖eᵗʳ‖ in uniaxial compression. Then
+ *   X = s − [τ + h g + γ] ∂g(eᵗʳ),  F = ‖X‖ − R,  g(eᵗʳ) ≤ ε_L,
+ * so the limit function depends on the third invariant through ∂g, and at eᵗʳ = 0 the elastic
+ * domain is {dist(s, τ·B°) ≤ R} with B° the polar set of g. Uniaxial closed forms (magnitudes):
+ *   tension:      start √(3/2)(R + τ),  saturation √(3/2)(R + τ + hε_L),  ε_max = √(2/3) ε_L;
+ *   compression:  start √(3/2)(R + rτ), saturation √(3/2)(R + rτ + rhε_L), ε_max = √(2/3) ε_L / r;
+ * reverse start/end √(3/2)(r(τ + hε_L) − R) / √(3/2)(rτ − R) (r = 1 in tension). So r is the ratio
+ * of the maximum transformation strains tension/compression and of the Clausius–Clapeyron slopes
+ * compression/tension; γ (0 ≤ γ < 1) sets how sharply the shape changes with the Lode angle and
+ * how large r may be. r = 1, γ = 0 is the symmetric model (the exact scalar reduction above).
+ * With asymmetry the same Δζ equation is solved; eᵗʳ(Δζ) is the proximal map of
+ * λ[τ g + ½h g² + I(g ≤ ε_L)] at v (computed in the principal deviatoric plane of v), which
+ * also covers nucleation and complete reverse (eᵗʳ = 0 when g°(v) ≤ λτ).
  */
+import { LodeGauge, lodeRatioRange, lodeShape } from './souzaAuricchioLode';
 import type { Material, MaterialPointInput, MaterialPointOutput, MaterialReport } from './types';
 
 export interface SouzaAuricchioInput {
@@ -33,6 +49,11 @@ export interface SouzaAuricchioInput {
   T0: number;
   R: number;
   eps_L: number;
+  /** Ratio of the maximum uniaxial transformation strains tension/compression (1: symmetric). */
+  tc_ratio?: number;
+  /** Lode-angle shape γ of Bigoni–Piccolroaz, 0 ≤ γ < 1 (0: no Lode dependence). */
+  lode_shape?: number;
+  /** Former single asymmetry number: only 0 is accepted (use tc_ratio and lode_shape). */
   asymmetry?: number;
 }
 
@@ -53,7 +74,15 @@ export function checkSouzaAuricchio(p: SouzaAuricchioInput): SouzaCheck {
   }
   if (!(p.nu > -1 && p.nu < 0.5)) return { ok: false, field: 'nu', message: 'nu: must lie in (−1, 0.5)' };
   if ((p.asymmetry ?? 0) !== 0) {
-    return { ok: false, field: 'asymmetry', message: 'asymmetry: the Lode-angle (tension–compression) term is not available yet; use 0' };
+    return { ok: false, field: 'asymmetry', message: 'asymmetry: replaced by tc_ratio (tension/compression ratio of the maximum transformation strain) and lode_shape (0 ≤ γ < 1); remove asymmetry or set it to 0' };
+  }
+  const ratio = p.tc_ratio ?? 1;
+  const gamma = p.lode_shape ?? 0;
+  if (!(Number.isFinite(gamma) && gamma >= 0 && gamma < 1)) return { ok: false, field: 'lode_shape', message: 'lode_shape: must lie in [0, 1)' };
+  if (!(Number.isFinite(ratio) && ratio > 0)) return { ok: false, field: 'tc_ratio', message: 'tc_ratio: must be > 0' };
+  if (!lodeShape(ratio, gamma)) {
+    const [lo, hi] = lodeRatioRange(gamma);
+    return { ok: false, field: 'tc_ratio', message: `tc_ratio: with lode_shape ${gamma} it must lie in [${lo.toPrecision(4)}, ${hi.toPrecision(4)}]; a larger lode_shape widens the range` };
   }
   const G = p.E / (2 * (1 + p.nu));
   const K = p.E / (3 * (1 - 2 * p.nu));
@@ -92,8 +121,17 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
 
   /** Elastic stiffness K 1⊗1 + 2G I_dev, formed once. */
   private readonly elastic = new Float64Array(36);
+  /** Lode-angle gauge when asymmetry is on; null for the symmetric model. */
+  private readonly gauge: LodeGauge | null;
+  private readonly grad = new Float64Array(6);
+  private readonly hess = new Float64Array(36);
+  private kappaLode = 0;
 
   constructor(readonly params: SouzaAuricchioConstants) {
+    const ratio = params.tc_ratio ?? 1;
+    const gamma = params.lode_shape ?? 0;
+    const shape = ratio === 1 && gamma === 0 ? null : lodeShape(ratio, gamma);
+    this.gauge = shape ? new LodeGauge(shape) : null;
     for (let i = 0; i < 6; i++) {
       for (let j = 0; j < 6; j++) this.elastic[i * 6 + j] = (i < 3 && j < 3 ? params.K : 0) + 2 * params.G * idev(i, j);
     }
@@ -110,12 +148,13 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
       out.transformationStrain[i] = x;
       q += x * x;
     }
-    out.xi = Math.sqrt(q) / this.params.eps_L;
+    out.xi = (this.gauge ? this.gauge.value(out.transformationStrain) : Math.sqrt(q)) / this.params.eps_L;
     out.eqPlastic = 0;
   }
 
   /** eᵗʳ(Δζ) by the scalar reduction; returns ‖eᵗʳ − eᵗʳ_n‖/Δζ − 1. */
   private trial(dz: number): number {
+    if (this.gauge) return this.trialLode(dz, this.gauge);
     const p = this.params;
     const lam = dz / (2 * p.G * dz + p.R);
     let vv = 0;
@@ -148,12 +187,31 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
     return Math.sqrt(dd) / dz - 1;
   }
 
+  /** trial() with the Lode-angle gauge: eᵗʳ is the proximal map at v = eᵗʳ_n + λ s_trial. */
+  private trialLode(dz: number, gauge: LodeGauge): number {
+    const p = this.params;
+    const lam = dz / (2 * p.G * dz + p.R);
+    for (let i = 0; i < 6; i++) this.v[i] = this.etrN[i] + lam * this.sTr[i];
+    const regime = gauge.prox(this.v, lam, this.tau, p.h, p.eps_L, this.etr);
+    let dd = 0;
+    let qq = 0;
+    for (let i = 0; i < 6; i++) {
+      const d = this.etr[i] - this.etrN[i];
+      dd += d * d;
+      qq += this.etr[i] * this.etr[i];
+    }
+    this.qReg = regime === 0 ? 'elastic' : regime === 1 ? 'free' : 'saturated';
+    this.qNorm = Math.sqrt(qq);
+    this.lambda = lam;
+    return Math.sqrt(dd) / dz - 1;
+  }
+
   /** Bracketed secant (Illinois) for the nontrivial root of trial(Δζ) = 0. */
   private solveIncrement(): void {
     const p = this.params;
     let qn = 0;
     for (let i = 0; i < 6; i++) qn += this.etrN[i] * this.etrN[i];
-    const upper = Math.sqrt(qn) + p.eps_L;
+    const upper = Math.sqrt(qn) + p.eps_L / (this.gauge ? this.gauge.shape.kMin * 0.999 : 1);
     let a = 1e-12 * upper;
     let fa = this.trial(a);
     let b = upper;
@@ -249,6 +307,7 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
   private isTransforming(qn: number, ss: number, sDotE: number): boolean {
     const p = this.params;
     const tolR = 1e-12 * p.R;
+    if (this.gauge) return this.isTransformingLode(qn, this.gauge, tolR);
     if (qn <= 1e-14 * p.eps_L) return Math.sqrt(ss) > p.R + this.tau + tolR;
     // Y = s_trial − k0 n_n: ‖Y‖² = ‖s‖² − 2 k0 (s·n_n) + k0², c = Y·n_n = s·n_n − k0
     const k0 = this.tau + p.h * qn;
@@ -258,6 +317,34 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
     // At saturation γ = max(c, 0) removes the component along eᵗʳ.
     const saturated = qn >= p.eps_L * (1 - 1e-12);
     const xx = saturated && c > 0 ? Math.max(yy - c * c, 0) : yy;
+    return Math.sqrt(xx) > p.R + tolR;
+  }
+
+  /**
+   * Elastic test with the gauge: at eᵗʳ_n = 0 the distance from s_trial to τB° (Moreau: the norm
+   * of the proximal map of τg); otherwise ‖X‖ with X = s_trial − (τ + h g_n + γ)∂g(eᵗʳ_n), the best
+   * γ ≥ 0 at saturation.
+   */
+  private isTransformingLode(qn: number, gauge: LodeGauge, tolR: number): boolean {
+    const p = this.params;
+    if (qn <= 1e-14 * p.eps_L) {
+      gauge.prox(this.sTr, 1, this.tau, 0, Infinity, this.etr);
+      let d = 0;
+      for (let i = 0; i < 6; i++) d += this.etr[i] * this.etr[i];
+      return Math.sqrt(d) > p.R + tolR;
+    }
+    const m = this.grad;
+    const g = gauge.derivatives(this.etrN, m);
+    const k0 = this.tau + p.h * g;
+    let mm = 0;
+    let ym = 0;
+    for (let i = 0; i < 6; i++) {
+      mm += m[i] * m[i];
+      ym += (this.sTr[i] - k0 * m[i]) * m[i];
+    }
+    const gam = g >= p.eps_L * (1 - 1e-12) ? Math.max(ym / mm, 0) : 0;
+    let xx = 0;
+    for (let i = 0; i < 6; i++) xx += (this.sTr[i] - (k0 + gam) * m[i]) ** 2;
     return Math.sqrt(xx) > p.R + tolR;
   }
 
@@ -284,24 +371,31 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
       const d = this.etr[i] - this.etrN[i];
       this.nHat[i] = d;
       dd += d * d;
-      this.nDir[i] = this.etr[i] / q;
+      if (!this.gauge) this.nDir[i] = this.etr[i] / q;
     }
     const dn = Math.sqrt(dd);
     for (let i = 0; i < 6; i++) this.nHat[i] = dn > 0 ? this.nHat[i] / dn : 0;
-    // κ = τ + hq + γ; at saturation γ from the reduction
+    const gauge = this.gauge;
+    // κ = τ + hq + γ; at saturation γ from the reduction (with the gauge: from ‖v − e‖ = λκ‖∂g‖)
     let kappa = this.tau + p.h * q;
-    if (sat) {
+    if (gauge) {
+      const g = gauge.derivatives(this.etr, this.nDir, this.hess);
+      let mm = 0;
+      for (let i = 0; i < 6; i++) mm += this.nDir[i] * this.nDir[i];
+      kappa = sat ? gauge.lastGap / (lam * Math.sqrt(mm)) : this.tau + p.h * g;
+    } else if (sat) {
       let vv = 0;
       for (let i = 0; i < 6; i++) vv += this.v[i] * this.v[i];
       kappa += Math.max((Math.sqrt(vv) - p.eps_L) / lam - this.tau - p.h * p.eps_L, 0);
     }
     const n = this.nDir;
     const N = this.nHat;
-    // dX/deᵗʳ = −2G I_d − h n⊗n − (κ/q)(I_d − n⊗n)
+    // dX/deᵗʳ = −2G I_d − h n⊗n − (κ/q)(I_d − n⊗n); with the gauge n = ∂g and κ ∂²g instead
     for (let i = 0; i < 6; i++) {
       for (let j = 0; j < 6; j++) {
         const id = idev(i, j);
-        this.dX[i * 6 + j] = -2 * p.G * id - p.h * n[i] * n[j] - (kappa / q) * (id - n[i] * n[j]);
+        const curv = gauge ? kappa * this.hess[i * 6 + j] : (kappa / q) * (id - n[i] * n[j]);
+        this.dX[i * 6 + j] = -2 * p.G * id - p.h * n[i] * n[j] - curv;
       }
     }
     const J = this.jac;

@@ -1,0 +1,168 @@
+/**
+ * Tension–compression asymmetry of the transformation-strain model (Lode-angle gauge of
+ * Bigoni & Piccolroaz 2004 on the transformation strain; see souzaAuricchio.ts for the closed
+ * forms derived from it).
+ */
+import { describe, expect, it } from 'vitest';
+import { runMaterialPoint } from './materialPoint';
+import { assertCheck, extrapolateTo, legRows } from './materialPointTesting';
+import { ReducedMaterial } from './reduce';
+import { driveReduced, tangentErrorReduced, tangentErrorSolid } from './reduceTesting';
+import { createSouzaAuricchio, SOUZA_STATE_SIZE, type SouzaAuricchioInput } from './souzaAuricchio';
+import { LodeGauge, lodeShape } from './souzaAuricchioLode';
+import { createMaterialPointOutput } from './types';
+
+const SUITE = 'SMA: Souza–Auricchio, tension–compression asymmetry';
+const SOURCE = 'closed form: Souza 1998 / Auricchio–Petrini 2004 uniaxial reduction with the Bigoni–Piccolroaz 2004 Lode-angle gauge on eᵗʳ';
+const SQ = Math.sqrt(1.5);
+const r = 1.35;
+const P: SouzaAuricchioInput = { E: 52000, nu: 0.33, alpha: 0, T_ref: 20, h: 1000, beta: 6.2, T0: -10, R: 60, eps_L: 0.05, tc_ratio: r, lode_shape: 0.8 };
+const inside = (v: number) => v > 0.02 && v < 0.98;
+
+describe('Lode-angle gauge', () => {
+  it('equals ‖e‖ in uniaxial tension and r‖e‖ in uniaxial compression; gradient and Hessian match differences', () => {
+    const shape = lodeShape(r, 0.8)!;
+    const g = new LodeGauge(shape);
+    const u = [2 / Math.sqrt(6), -1 / Math.sqrt(6), -1 / Math.sqrt(6), 0, 0, 0];
+    expect(g.value(u.map((x) => 0.03 * x))).toBeCloseTo(0.03, 15);
+    expect(g.value(u.map((x) => -0.03 * x))).toBeCloseTo(0.03 * r, 15);
+    const e = Float64Array.from([0.012, -0.004, -0.008, 0.003, -0.002, 0.005]);
+    const grad = new Float64Array(6);
+    const hess = new Float64Array(36);
+    g.derivatives(e, grad, hess);
+    const h = 1e-7;
+    const gp = new Float64Array(6);
+    const gm = new Float64Array(6);
+    let worstG = 0;
+    let worstH = 0;
+    for (let j = 0; j < 6; j++) {
+      // deviatoric perturbation direction
+      const d = new Float64Array(6);
+      d[j] = 1;
+      if (j < 3) for (let k = 0; k < 3; k++) d[k] -= 1 / 3;
+      const ep = e.map((x, i) => x + h * d[i]);
+      const em = e.map((x, i) => x - h * d[i]);
+      let dg = 0;
+      for (let i = 0; i < 6; i++) dg += grad[i] * d[i];
+      worstG = Math.max(worstG, Math.abs((g.value(ep) - g.value(em)) / (2 * h) - dg));
+      g.derivatives(ep, gp);
+      g.derivatives(em, gm);
+      for (let i = 0; i < 6; i++) {
+        let hd = 0;
+        for (let k = 0; k < 6; k++) hd += hess[i * 6 + k] * d[k];
+        worstH = Math.max(worstH, Math.abs((gp[i] - gm[i]) / (2 * h) - hd));
+      }
+    }
+    expect(worstG).toBeLessThan(1e-8);
+    expect(worstH).toBeLessThan(1e-5 * 30);
+  });
+});
+
+describe('Souza–Auricchio with asymmetry: uniaxial pseudoelastic loops in tension and compression', () => {
+  const T = 45;
+  const t = P.beta * (T - P.T0);
+  const { R, h, eps_L } = P;
+  const loop = (sign: number) =>
+    runMaterialPoint(createSouzaAuricchio(P), {
+      control: 'strain',
+      path: [{ value: 0, temperature: T }, { value: sign * 0.07, temperature: T, increments: 700 }, { value: 0, temperature: T, increments: 700 }],
+    });
+
+  for (const [name, sign, k] of [['tension', 1, 1], ['compression', -1, r]] as const) {
+    it(`${name}: start √(3/2)(R + ${name === 'tension' ? '' : 'r'}τ), saturation, reverse start/end, maximum transformation strain √(2/3)ε_L${name === 'tension' ? '' : '/r'}`, () => {
+      const res = loop(sign);
+      expect(res.ok, res.message).toBe(true);
+      const load = legRows(res.rows, 1).map((row) => ({ ...row, stress: sign * row.stress, strain: sign * row.strain, transformationStrain: sign * row.transformationStrain }));
+      const unload = legRows(res.rows, 2).map((row) => ({ ...row, stress: sign * row.stress, strain: sign * row.strain, transformationStrain: sign * row.transformationStrain }));
+      const cases: [string, number, number][] = [
+        ['forward start', extrapolateTo(load, 'stress', 'xi', 0, inside), SQ * (R + k * t)],
+        ['saturation', extrapolateTo(load, 'stress', 'xi', 1, inside), SQ * (R + k * t + k * h * eps_L)],
+        ['reverse start', extrapolateTo(unload, 'stress', 'xi', 1, inside), SQ * (k * (t + h * eps_L) - R)],
+        ['reverse end', extrapolateTo(unload, 'stress', 'xi', 0, inside), SQ * (k * t - R)],
+      ];
+      for (const [what, computed, target] of cases) {
+        assertCheck({ suite: SUITE, name: `uniaxial ${name} at ${T} °C, r = ${r}, γ = 0.8: ${what} stress`, computed, target, unit: 'MPa', tolerance: 1e-7, source: SOURCE });
+      }
+      assertCheck({ suite: SUITE, name: `uniaxial ${name}, r = ${r}: saturated transformation strain`, computed: load.at(-1)!.transformationStrain, target: (Math.sqrt(2 / 3) * eps_L) / k, unit: '-', tolerance: 1e-9, source: SOURCE });
+      expect(unload.at(-1)!.xi).toBe(0);
+    });
+  }
+});
+
+describe('Souza–Auricchio with asymmetry: consistent tangent against finite differences', () => {
+  const m = createSouzaAuricchio(P);
+  const T = 45;
+  const load = { strainOld: new Float64Array(6), temperature: T, temperatureOld: T };
+  const step = (strain: Float64Array, old: Float64Array) => {
+    const state = new Float64Array(SOUZA_STATE_SIZE);
+    const out = createMaterialPointOutput();
+    m.update({ strain, ...load }, old, 0, state, 0, out);
+    expect(out.ok, out.message).toBe(true);
+    const rep = { xi: 0, eqPlastic: 0, transformationStrain: new Float64Array(6) };
+    m.report(state, 0, rep);
+    return { state, xi: rep.xi };
+  };
+  const virgin = new Float64Array(SOUZA_STATE_SIZE);
+
+  for (const [label, dir] of [
+    ['tension-dominated', [1, -0.3, -0.45, 0.2, 0.1, 0.3]],
+    ['compression-dominated', [-1, 0.35, 0.5, 0.1, -0.2, 0.25]],
+  ] as const) {
+    it(`in every branch (${label}): elastic, nucleation, forward, saturating, saturated, reverse, complete reverse, reorientation`, () => {
+      const scaled = (s: number) => Float64Array.from(dir, (x) => x * s);
+      // scale of the first increment that just saturates, found on the way
+      const mid = step(scaled(0.025), virgin);
+      const sat = step(scaled(0.07), virgin);
+      expect(mid.xi).toBeGreaterThan(0.15);
+      expect(mid.xi).toBeLessThan(0.85);
+      expect(sat.xi).toBeCloseTo(1, 12);
+      const other = [0.2, 0.5, -0.7, 0.4, -0.3, 0.1];
+      const cases: [string, Float64Array, Float64Array, (xi: number) => boolean][] = [
+        ['elastic', scaled(0.004), virgin, (x) => x === 0],
+        ['nucleation', scaled(0.025), virgin, (x) => x > 0 && x < 1],
+        ['forward', scaled(0.03), mid.state, (x) => x > mid.xi && x < 1],
+        ['saturating', scaled(0.07), mid.state, (x) => Math.abs(x - 1) < 1e-12],
+        ['saturated', scaled(0.075), sat.state, (x) => Math.abs(x - 1) < 1e-12],
+        ['reverse', scaled(0.021), mid.state, (x) => x < mid.xi && x > 0],
+        ['complete reverse', scaled(0.004), mid.state, (x) => x === 0],
+        ['reorientation, free', Float64Array.from(dir, (x, i) => 0.025 * x + 0.012 * other[i]), mid.state, (x) => x > 0 && x < 1],
+        ['reorientation, saturated', Float64Array.from(dir, (x, i) => 0.07 * x + 0.03 * other[i]), sat.state, (x) => Math.abs(x - 1) < 1e-12],
+      ];
+      for (const [name, strain, old, branch] of cases) {
+        const { xi } = step(strain, old);
+        expect(branch(xi), `${name}: xi = ${xi}`).toBe(true);
+        const err = tangentErrorSolid(m, { strain, ...load }, old, 1e-8);
+        expect(err, name).toBeLessThan(1e-5);
+      }
+    });
+  }
+
+  it('through the plane-stress and uniaxial reductions', () => {
+    for (const stressState of ['uniaxial', 'planeStress'] as const) {
+      const red = new ReducedMaterial(m, stressState);
+      for (const sign of [1, -1]) {
+        const path = stressState === 'uniaxial' ? [[0.008], [0.016], [0.022]] : [[0.008, -0.002, 0.004], [0.016, -0.004, 0.008], [0.022, -0.006, 0.01]];
+        const { stateOld, strainOld } = driveReduced(red, path.map((p) => p.map((x) => sign * x)), [T, T, T], T);
+        for (const f of [1.1, 0.93, 2.5]) {
+          const strain = Float64Array.from(strainOld, (x) => x * f);
+          const err = tangentErrorReduced(red, { strain, strainOld, temperature: T, temperatureOld: T }, stateOld, 1e-8);
+          expect(err, `${stressState} ${sign > 0 ? 'tension' : 'compression'} ×${f}`).toBeLessThan(1e-5);
+        }
+      }
+    }
+  });
+
+  it('symmetric parameters give exactly the symmetric model; out-of-range ratios are refused with the range', () => {
+    const a = createSouzaAuricchio({ ...P, tc_ratio: 1, lode_shape: 0 });
+    const b = createSouzaAuricchio({ ...P, tc_ratio: undefined, lode_shape: undefined });
+    const strain = Float64Array.from([0.03, -0.01, -0.012, 0.004, 0.002, 0.006]);
+    const oa = createMaterialPointOutput();
+    const ob = createMaterialPointOutput();
+    a.update({ strain, ...load }, virgin, 0, new Float64Array(6), 0, oa);
+    b.update({ strain, ...load }, virgin, 0, new Float64Array(6), 0, ob);
+    expect(Array.from(oa.stress)).toEqual(Array.from(ob.stress));
+    expect(() => createSouzaAuricchio({ ...P, tc_ratio: 1.3, lode_shape: 0 })).toThrow(/^tc_ratio: .*\[1\.000, 1\.000\]/);
+    expect(() => createSouzaAuricchio({ ...P, lode_shape: 1 })).toThrow(/^lode_shape:/);
+    expect(() => createSouzaAuricchio({ ...P, asymmetry: 0.2 })).toThrow(/^asymmetry: replaced by tc_ratio/);
+  });
+});
