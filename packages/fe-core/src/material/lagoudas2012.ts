@@ -211,6 +211,63 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     out[2] += kv;
   }
 
+  // Transformation hardening at σ̄ (written by transformationTerms, no allocation per call):
+  // H(σ̄), dH/dσ̄, the smoothed sign g = σ̄/√(σ̄² + σ̄_r²) and dg/dσ̄.
+  private hH = 0;
+  private hHp = 0;
+  private hG = 0;
+  private hGp = 0;
+
+  private transformationTerms(sbar: number): void {
+    const p = this.params;
+    const r2 = p.sigmaReg * p.sigmaReg;
+    const ex = p.k_t === 0 ? 1 : Math.exp(-p.k_t * sbar);
+    this.hH = p.H_min + (p.H_sat - p.H_min) * (1 - ex);
+    this.hHp = (p.H_sat - p.H_min) * p.k_t * ex;
+    const sr = Math.sqrt(sbar * sbar + r2);
+    this.hG = sbar / sr;
+    this.hGp = r2 / (sr * sr * sr);
+  }
+
+  /** n̂ = unit deviator of e (zero when e is volumetric); returns ‖dev e‖. */
+  private deviatorDirection(e: Float64Array): number {
+    const m = (e[0] + e[1] + e[2]) / 3;
+    let nn = 0;
+    for (let i = 0; i < 6; i++) {
+      const d = i < 3 ? e[i] - m : e[i];
+      this.nhat[i] = d;
+      nn += d * d;
+    }
+    const enorm = Math.sqrt(nn);
+    if (enorm > 0) for (let i = 0; i < 6; i++) this.nhat[i] /= enorm;
+    else zero6(this.nhat);
+    return enorm;
+  }
+
+  /** σ = √(2/3) σ̄ n̂ + p·1 with p = tr(e*) / (3 S (1 − 2ν)); returns p. */
+  private radialStress(sbar: number, tr: number, s: number): number {
+    const dev = Math.sqrt(2 / 3) * sbar;
+    const pm = tr / (3 * s * (1 - 2 * this.params.nu));
+    for (let i = 0; i < 6; i++) this.sig[i] = dev * this.nhat[i] + (i < 3 ? pm : 0);
+    return pm;
+  }
+
+  /** ∂Φ/∂σ : Ξ N for the transformation direction lam (leaves Ξ N in xiN for the tangent). */
+  private phiSXiN(lam: Float64Array): number {
+    this.buildN(lam);
+    this.applyXiN();
+    let q = 0;
+    for (let i = 0; i < 6; i++) q += this.phiS[i] * this.xiN[i];
+    return q;
+  }
+
+  /** Φ of one direction at ξ from the base state; the reverse one first freezes its direction. */
+  private evalFromBase(dir: Direction, xi: number, derivatives: boolean): number {
+    if (dir === 'forward') return this.evalForward(xi, derivatives);
+    this.setReverseDirection();
+    return this.evalReverse(xi, derivatives);
+  }
+
   /**
    * Forward: stress for a given ξ ≥ ξ_base, Φ_fwd there and dΦ/dξ along the solution.
    * Returns Φ; leaves σ, Λ, n̂, s, a, b, N, ∂Φ/∂σ and the denominator in the work buffers.
@@ -223,16 +280,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     this.knownStrain(xi);
     const e = this.estar;
     const tr = e[0] + e[1] + e[2];
-    const m = tr / 3;
-    let nn = 0;
-    for (let i = 0; i < 6; i++) {
-      const d = i < 3 ? e[i] - m : e[i];
-      this.nhat[i] = d;
-      nn += d * d;
-    }
-    const enorm = Math.sqrt(nn);
-    if (enorm > 0) for (let i = 0; i < 6; i++) this.nhat[i] /= enorm;
-    else zero6(this.nhat);
+    const enorm = this.deviatorDirection(e);
     const c = s * (1 + p.nu);
     const target = SQ32 * enorm;
     const r2 = p.sigmaReg * p.sigmaReg;
@@ -246,12 +294,8 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     let gp = 0;
     let converged = dxi === 0;
     for (let it = 0; it < MAX_INNER; it++) {
-      const ex = p.k_t === 0 ? 1 : Math.exp(-p.k_t * x);
-      H = p.H_min + (p.H_sat - p.H_min) * (1 - ex);
-      Hp = (p.H_sat - p.H_min) * p.k_t * ex;
-      const sr = Math.sqrt(x * x + r2);
-      g = x / sr;
-      gp = r2 / (sr * sr * sr);
+      this.transformationTerms(x);
+      ({ hH: H, hHp: Hp, hG: g, hGp: gp } = this);
       if (converged) break;
       const psi = c * x + 1.5 * dxi * H * g - target;
       const dpsi = c + 1.5 * dxi * (Hp * g + H * gp);
@@ -271,24 +315,16 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     if (p.plastic && x > p.yA + xi * p.dY + p.Hiso * this.pB) {
       dp = this.plasticForward(xi, dxi, c, target);
       x = p.yA + xi * p.dY + p.Hiso * (this.pB + dp);
-      const ex = p.k_t === 0 ? 1 : Math.exp(-p.k_t * x);
-      H = p.H_min + (p.H_sat - p.H_min) * (1 - ex);
-      Hp = (p.H_sat - p.H_min) * p.k_t * ex;
-      const sr = Math.sqrt(x * x + r2);
-      g = x / sr;
-      gp = r2 / (sr * sr * sr);
+      this.transformationTerms(x);
+      ({ hH: H, hHp: Hp, hG: g, hGp: gp } = this);
     }
     const sbar = x;
     const a = c + 1.5 * dxi * H / Math.sqrt(sbar * sbar + r2) + (dp > 0 ? (1.5 * dp) / sbar : 0);
     const b = c + 1.5 * dxi * (Hp * g + H * gp);
     this.setRadial(a, b, dp);
-    const dev = Math.sqrt(2 / 3) * sbar;
-    const pm = tr / (3 * s * (1 - 2 * p.nu));
+    const pm = this.radialStress(sbar, tr, s);
     const lamMag = SQ32 * H * g;
-    for (let i = 0; i < 6; i++) {
-      this.sig[i] = dev * this.nhat[i] + (i < 3 ? pm : 0);
-      this.lam[i] = lamMag * this.nhat[i];
-    }
+    for (let i = 0; i < 6; i++) this.lam[i] = lamMag * this.nhat[i];
     const dT = this.temp - p.T_ref;
     const trs = 3 * pm;
     const phi =
@@ -299,11 +335,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     const dPhiBar = (1 - p.D) * (Hp * sbar * g + H * g + H * sbar * gp) * SQ32;
     for (let i = 0; i < 6; i++) this.phiS[i] = dPhiBar * this.nhat[i] + p.dS * (1 + p.nu) * this.sig[i];
     for (let i = 0; i < 3; i++) this.phiS[i] += -p.dS * p.nu * trs + p.dAlpha * dT;
-    this.buildN(this.lam);
-    this.applyXiN();
-    let q = 0;
-    for (let i = 0; i < 6; i++) q += this.phiS[i] * this.xiN[i];
-    this.denC = q + this.fFwdSlope(xi);
+    this.denC = this.phiSXiN(this.lam) + this.fFwdSlope(xi);
     return phi;
   }
 
@@ -313,18 +345,13 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
    */
   private plasticForward(xi: number, dxi: number, c: number, target: number): number {
     const p = this.params;
-    const r2 = p.sigmaReg * p.sigmaReg;
     let lo = 0;
     let hi = target / 1.5;
     let dp = 0;
     for (let it = 0; it < MAX_INNER; it++) {
       const y = p.yA + xi * p.dY + p.Hiso * (this.pB + dp);
-      const ex = p.k_t === 0 ? 1 : Math.exp(-p.k_t * y);
-      const H = p.H_min + (p.H_sat - p.H_min) * (1 - ex);
-      const Hp = (p.H_sat - p.H_min) * p.k_t * ex;
-      const sr = Math.sqrt(y * y + r2);
-      const g = y / sr;
-      const gp = r2 / (sr * sr * sr);
+      this.transformationTerms(y);
+      const { hH: H, hHp: Hp, hG: g, hGp: gp } = this;
       const phi = c * y + 1.5 * dxi * H * g + 1.5 * dp - target;
       if (Math.abs(phi) <= 1e-15 * target) return dp;
       if (phi > 0) hi = dp;
@@ -372,16 +399,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     for (let i = 0; i < 6; i++) e[i] -= dxi * this.lamR[i];
     // σ' ∥ deviator of the known strain; radial return when the yield stress is exceeded
     const tr = e[0] + e[1] + e[2];
-    const m = tr / 3;
-    let nn = 0;
-    for (let i = 0; i < 6; i++) {
-      const d = i < 3 ? e[i] - m : e[i];
-      this.nhat[i] = d;
-      nn += d * d;
-    }
-    const enorm = Math.sqrt(nn);
-    if (enorm > 0) for (let i = 0; i < 6; i++) this.nhat[i] /= enorm;
-    else zero6(this.nhat);
+    const enorm = this.deviatorDirection(e);
     let sbar = (SQ32 * enorm) / c;
     let dp = 0;
     if (p.plastic) {
@@ -392,9 +410,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       }
     }
     this.setRadial(dp > 0 ? c + (1.5 * dp) / sbar : c, c, dp);
-    const dev = Math.sqrt(2 / 3) * sbar;
-    const pm = tr / (3 * s * (1 - 2 * p.nu));
-    for (let i = 0; i < 6; i++) this.sig[i] = dev * this.nhat[i] + (i < 3 ? pm : 0);
+    this.radialStress(sbar, tr, s);
     const dT = this.temp - p.T_ref;
     const trs = this.sig[0] + this.sig[1] + this.sig[2];
     let sl = 0;
@@ -405,11 +421,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     if (!derivatives) return phi;
     for (let i = 0; i < 6; i++) this.phiS[i] = -(1 + p.D) * this.lamR[i] - p.dS * (1 + p.nu) * this.sig[i];
     for (let i = 0; i < 3; i++) this.phiS[i] += p.dS * p.nu * trs - p.dAlpha * dT;
-    this.buildN(this.lamR);
-    this.applyXiN();
-    let q = 0;
-    for (let i = 0; i < 6; i++) q += this.phiS[i] * this.xiN[i];
-    this.denC = q - this.fRevSlope(xi);
+    this.denC = this.phiSXiN(this.lamR) - this.fRevSlope(xi);
     return phi;
   }
 
@@ -475,11 +487,8 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
    * Both evaluations are at Δξ = 0, so either leaves the elastic trial stress in the buffers.
    */
   private trialPhis(out: { fwd: number; rev: number }): void {
-    out.fwd = this.xiB < 1 ? this.evalForward(this.xiB, false) : -Infinity;
-    if (this.xiB > 0) {
-      this.setReverseDirection();
-      out.rev = this.evalReverse(this.xiB, false);
-    } else out.rev = -Infinity;
+    out.fwd = this.xiB < 1 ? this.evalFromBase('forward', this.xiB, false) : -Infinity;
+    out.rev = this.xiB > 0 ? this.evalFromBase('reverse', this.xiB, false) : -Infinity;
   }
 
   private readonly trial = { fwd: 0, rev: 0 };
@@ -535,12 +544,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       for (let k = 0; k < MAX_PHASES; k++) {
         const allowed = next === 'forward' ? this.xiB < 1 : this.xiB > 0;
         if (!allowed) break;
-        let phi2: number;
-        if (next === 'reverse') {
-          this.setReverseDirection();
-          phi2 = this.evalReverse(this.xiB, false);
-        } else phi2 = this.evalForward(this.xiB, false);
-        if (!(phi2 > tol)) break;
+        if (!(this.evalFromBase(next, this.xiB, false) > tol)) break;
         transforming = this.runPhase(next);
         mode = next;
         next = next === 'forward' ? 'reverse' : 'forward';
@@ -564,11 +568,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private reevaluateEnd(mode: Direction): void {
     const xi = this.xiB;
     this.restorePhaseStart();
-    if (mode === 'forward') this.evalForward(xi);
-    else {
-      this.setReverseDirection();
-      this.evalReverse(xi);
-    }
+    this.evalFromBase(mode, xi, true);
     this.commitPhaseEnd(xi, mode);
   }
 
