@@ -1,0 +1,97 @@
+/**
+ * Issue 6 journey: the demo analyst runs a strut-cell study, watches it on the run monitor, opens
+ * the results, switches the contour to martensite fraction, probes a point and downloads a VTU
+ * frame (it must parse as VTK XML). The demo viewer then opens the same results without any
+ * submit, edit or cancel control, and the API refuses those actions to the viewer.
+ */
+import path from 'node:path';
+import { expect, test } from '@playwright/test';
+import { ARTIFACTS, DEMO_PROJECT, signInViaApi, waitForData } from './support';
+
+let runPath = '';
+let runId = '';
+let studyId = '';
+
+test.describe.serial('run monitor and results', () => {
+  test('analyst submits a strut-cell study and opens its results', async ({ page }) => {
+    test.setTimeout(600_000);
+    await signInViaApi(page.request, 'analyst');
+    // The stent project, which the demo viewer belongs to as well (opening a project makes it current).
+    await page.goto('/projects');
+    await page.getByTestId('projects-table').getByRole('link', { name: DEMO_PROJECT }).click();
+    await waitForData(page);
+    await page.goto('/studies/new?template=stent-strut');
+    await waitForData(page);
+    await page.getByTestId('study-name').fill('E2E strut cell run');
+    await expect(page.getByTestId('mesh-stats')).toContainText(/\d+ nodes/);
+    await page.getByTestId('study-submit').click();
+    await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
+    runPath = new URL(page.url()).pathname;
+    runId = runPath.split('/').pop() ?? '';
+    await expect(page.getByTestId('run-state')).toBeVisible();
+    await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'run-monitor.png'), fullPage: true });
+
+    // The worker solves it; the monitor follows to a final state.
+    await expect(page.getByTestId('run-state')).toHaveAttribute('data-status', 'succeeded', { timeout: 540_000 });
+    await expect(page.getByTestId('run-progress')).toContainText('100%');
+    await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'run-monitor-finished.png'), fullPage: true });
+    studyId = (await (await page.request.get(`/api/runs/${runId}`)).json() as { studyId: string }).studyId;
+
+    await page.getByTestId('run-open-results').click();
+    await expect(page.getByTestId('results-caution')).toContainText('never replace, physical testing');
+    await expect(page.getByTestId('results-viewport').locator('canvas')).toBeVisible();
+
+    await page.getByTestId('results-field').click();
+    await page.getByRole('option', { name: /martensite fraction/ }).click();
+    await expect(page.getByTestId('results-legend')).toContainText('martensite fraction ξ');
+
+    const canvas = page.getByTestId('results-viewport').locator('canvas');
+    const box = await canvas.boundingBox();
+    expect(box).not.toBeNull();
+    // The mesh sits in the middle of the fitted view; probe a few points near the centre until one hits it.
+    await expect(async () => {
+      const dx = (Math.random() - 0.5) * 0.2 * (box?.width ?? 0);
+      const dy = (Math.random() - 0.5) * 0.2 * (box?.height ?? 0);
+      await canvas.click({ position: { x: (box?.width ?? 0) / 2 + dx, y: (box?.height ?? 0) / 2 + dy } });
+      await expect(page.getByTestId('results-probe-value')).toContainText('martensite fraction ξ =', { timeout: 1000 });
+    }).toPass({ timeout: 30_000 });
+    await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'results.png'), fullPage: true });
+
+    const vtuLink = page.getByTestId('results-vtu');
+    await expect(vtuLink).toBeVisible();
+    const href = await vtuLink.getAttribute('href');
+    const vtu = await page.request.get(href ?? '');
+    expect(vtu.ok()).toBeTruthy();
+    const text = await vtu.text();
+    // VTK XML file format: a VTKFile root of type UnstructuredGrid with Piece/Points/Cells.
+    expect(text).toMatch(/<VTKFile[^>]*type="UnstructuredGrid"/);
+    expect(text).toContain('<Points>');
+    expect(text).toContain('<Cells>');
+  });
+
+  test('viewer opens the same results without submit, edit or cancel controls; the API refuses them', async ({ page }) => {
+    test.skip(!runId, 'needs the run of the previous test');
+    await signInViaApi(page.request, 'viewer');
+    await page.goto(`/runs/${runId}/results`);
+    await expect(page.getByTestId('results-caution')).toBeVisible();
+    await waitForData(page);
+    await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'results-viewer.png'), fullPage: true });
+    await page.goto(runPath);
+    await waitForData(page);
+    await expect(page.getByTestId('run-state')).toBeVisible();
+    await expect(page.getByTestId('run-cancel')).toHaveCount(0);
+    await expect(page.getByTestId('run-rerun')).toHaveCount(0);
+    await expect(page.getByTestId('run-duplicate')).toHaveCount(0);
+    await page.goto(`/studies/${studyId}`);
+    await waitForData(page);
+    await expect(page.getByTestId('study-save')).toHaveCount(0);
+    await expect(page.getByTestId('study-submit')).toHaveCount(0);
+
+    const { token } = (await (await page.request.get('/api/auth/csrf')).json()) as { token: string };
+    const headers = { 'x-csrf-token': token };
+    expect((await page.request.post(`/api/studies/${studyId}/runs`, { headers, data: {} })).status()).toBe(403);
+    expect((await page.request.post(`/api/runs/${runId}/rerun`, { headers, data: {} })).status()).toBe(403);
+    expect((await page.request.post(`/api/runs/${runId}/cancel`, { headers, data: {} })).status()).toBe(403);
+    expect((await page.request.patch(`/api/studies/${studyId}`, { headers, data: { name: 'renamed', revision: 1 } })).status()).toBe(403);
+  });
+});
