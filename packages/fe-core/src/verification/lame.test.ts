@@ -8,35 +8,19 @@
  */
 import { describe, it } from 'vitest';
 import type { ModelInput } from '@phaseloop/shared';
-import { ellipticRing, rectangle } from '../mesh/structured';
+import { rectangle } from '../mesh/structured';
 import { recoverNodal } from '../output/recovery';
+import { LAME, LAME_SOURCE as SOURCE, lameClosedForm, lameQuarterAnnulus } from './lameCylinder';
 import { check, nodeAt, solveModel } from './support';
 
-const a = 10, b = 20, p = 100, E = 200000, nu = 0.3;
-const A = (p * a * a) / (b * b - a * a);
-const B = (p * a * a * b * b) / (b * b - a * a);
-const sigmaTT = A + B / (a * a);
-const sigmaRR = A - B / (a * a);
-const uPlaneStrain = ((1 + nu) * a / E) * ((1 - 2 * nu) * A + B / (a * a));
-const uClosedEnd = (a / E) * (sigmaTT - nu * (sigmaRR + A));
-const SOURCE = 'Lamé thick cylinder, closed form (Timoshenko & Goodier, Theory of Elasticity)';
+const { a, b, p, E } = LAME;
+const nu = 0.3;
+const { A, sigmaTT, sigmaRR, uPlaneStrain, uClosedEnd } = lameClosedForm(nu);
 const SUITE = 'Elements: closed-form solutions';
 
 describe('Lamé thick cylinder', () => {
   it('plane strain quarter annulus (Q8)', () => {
-    const mesh = ellipticRing({ inner: { a, b: a }, outer: { a: b, b }, nAround: 8, nRadial: 8, ratio: 2 }, { type: 'q8', section: 's', material: 'steel' });
-    const model: ModelInput = {
-      format: 'phaseloop-model/1',
-      ...mesh,
-      sections: { s: { kind: 'continuum', analysis: 'planeStrain', thickness: 1 } },
-      materials: { steel: { model: 'linear-elastic', E, nu } },
-      supports: [
-        { type: 'symmetry', set: 'start', normal: 'y' },
-        { type: 'symmetry', set: 'end', normal: 'x' },
-      ],
-      loads: [{ type: 'pressure', name: 'p', edgeSet: 'inner' }],
-      segments: [{ name: 'pressurise', targets: { p }, increments: { initial: 1, min: 0.1, max: 1 } }],
-    };
+    const model = lameQuarterAnnulus('q8', nu, 8, 2);
     const { problem, last } = solveModel(model);
     const s = recoverNodal(problem, last.pointStress, 6);
     const n = nodeAt(problem, a, 0);
