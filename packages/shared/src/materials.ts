@@ -76,11 +76,27 @@ export const lagoudas2012Schema = z.object({
     .optional(),
 });
 
+/** Range of tc_ratio reachable with lode_shape γ (Bigoni–Piccolroaz β from 0 to 2). */
+export function souzaTcRatioRange(lodeShape: number): [number, number] {
+  const a = Math.acos(lodeShape);
+  const hi = Math.cos(a / 3) / Math.cos((Math.PI - a) / 3);
+  return [1 / hi, hi];
+}
+
 /**
  * Transformation-strain model, Souza et al. (1998) / Auricchio & Petrini (2002, 2004).
  * τ(T) = beta·max(T − T0, 0); eps_L bounds the norm of the transformation strain tensor (the
  * uniaxial transformation strain saturates at √(2/3)·eps_L); T_ref is the temperature of zero
  * thermal strain.
+ *
+ * Tension–compression asymmetry (Lode-angle gauge of Bigoni & Piccolroaz 2004 on the
+ * transformation strain): tc_ratio = r is the ratio of the maximum uniaxial transformation strains
+ * tension/compression, which is also the ratio of the stress–temperature slopes
+ * compression/tension; uniaxial tension keeps the symmetric closed forms, uniaxial compression
+ * starts at √(3/2)(R + r·τ), saturates at √(3/2)(R + r·τ + r·h·eps_L) with transformation strain
+ * √(2/3)·eps_L/r. lode_shape = γ in [0, 1) sets how the shape varies with the Lode angle and bounds
+ * r (see souzaTcRatioRange); r = 1, γ = 0 is the symmetric model. The former single `asymmetry`
+ * number is still read when it is 0.
  */
 export const souzaAuricchioSchema = z.object({
   model: z.literal('souza-auricchio'),
@@ -93,8 +109,28 @@ export const souzaAuricchioSchema = z.object({
   T0: smaFinite('T0 (°C, temperature where the driving threshold vanishes)'),
   R: smaPositive('R (elastic domain radius, MPa)'),
   eps_L: smaPositive('eps_L (maximum transformation strain norm)').max(0.2, { error: 'eps_L must be ≤ 0.2' }),
-  /** Tension–compression asymmetry (Lode-angle term): only 0 (symmetric) is available so far. */
-  asymmetry: smaNumber('asymmetry').min(0).lt(1).default(0),
+  /** Default 1 (symmetric); optional so parameter sets written before it stay valid as they are. */
+  tc_ratio: smaPositive('tc_ratio (tension/compression ratio of the maximum transformation strain)').optional(),
+  /** Default 0 (no Lode-angle dependence). */
+  lode_shape: smaNumber('lode_shape (Lode-angle shape γ)')
+    .min(0, { error: 'lode_shape must be ≥ 0' })
+    .lt(1, { error: 'lode_shape must be < 1' })
+    .optional(),
+  /** Superseded by tc_ratio and lode_shape; only 0 (symmetric) is accepted. */
+  asymmetry: smaNumber('asymmetry')
+    .refine((v: number): boolean => v === 0, { error: 'asymmetry is replaced by tc_ratio and lode_shape: remove it (or set 0) and give those instead' })
+    .optional(),
+}).superRefine((m, ctx) => {
+  const ratio = m.tc_ratio ?? 1;
+  const shape = m.lode_shape ?? 0;
+  const [lo, hi] = souzaTcRatioRange(shape);
+  if (ratio < lo * (1 - 1e-12) || ratio > hi * (1 + 1e-12)) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['tc_ratio'],
+      message: `tc_ratio must lie in [${lo.toPrecision(4)}, ${hi.toPrecision(4)}] with lode_shape ${shape}; a larger lode_shape widens the range`,
+    });
+  }
 });
 
 export const materialParamsSchema = z.discriminatedUnion('model', [

@@ -4,6 +4,7 @@
  * forms derived from it).
  */
 import { describe, expect, it } from 'vitest';
+import { materialParamsSchema } from '@phaseloop/shared';
 import { runMaterialPoint } from './materialPoint';
 import { assertCheck, extrapolateTo, legRows } from './materialPointTesting';
 import { ReducedMaterial } from './reduce';
@@ -164,5 +165,28 @@ describe('Souza–Auricchio with asymmetry: consistent tangent against finite di
     expect(() => createSouzaAuricchio({ ...P, tc_ratio: 1.3, lode_shape: 0 })).toThrow(/^tc_ratio: .*\[1\.000, 1\.000\]/);
     expect(() => createSouzaAuricchio({ ...P, lode_shape: 1 })).toThrow(/^lode_shape:/);
     expect(() => createSouzaAuricchio({ ...P, asymmetry: 0.2 })).toThrow(/^asymmetry: replaced by tc_ratio/);
+  });
+});
+
+describe('souza-auricchio parameter schema', () => {
+  const base = { model: 'souza-auricchio', E: 52000, nu: 0.33, h: 1000, beta: 6.2, T0: -10, R: 60, eps_L: 0.05 };
+  const issues = (x: object) => {
+    const r = materialParamsSchema.safeParse(x);
+    return r.success ? [] : r.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
+  };
+  it('accepts old input (no asymmetry fields, or asymmetry 0) as the symmetric model', () => {
+    expect(issues(base)).toEqual([]);
+    expect(issues({ ...base, asymmetry: 0 })).toEqual([]);
+    expect(issues({ ...base, tc_ratio: 1.35, lode_shape: 0.8 })).toEqual([]);
+  });
+  it('explains a non-zero asymmetry, a bad lode_shape and an unreachable tc_ratio', () => {
+    expect(issues({ ...base, asymmetry: 0.2 })).toEqual(['asymmetry: asymmetry is replaced by tc_ratio and lode_shape: remove it (or set 0) and give those instead']);
+    expect(issues({ ...base, lode_shape: 1 })).toEqual(['lode_shape: lode_shape must be < 1']);
+    expect(issues({ ...base, tc_ratio: 1.3 })).toEqual(['tc_ratio: tc_ratio must lie in [1.000, 1.000] with lode_shape 0; a larger lode_shape widens the range']);
+    // the schema's range is the one the model uses
+    expect(issues({ ...base, tc_ratio: 1.45, lode_shape: 0.8 })).toEqual([]);
+    expect(() => createSouzaAuricchio({ ...P, tc_ratio: 1.45, lode_shape: 0.8 })).not.toThrow();
+    expect(issues({ ...base, tc_ratio: 1.46, lode_shape: 0.8 })[0]).toMatch(/^tc_ratio: tc_ratio must lie in \[0\.6887, 1\.452\]/);
+    expect(() => createSouzaAuricchio({ ...P, tc_ratio: 1.46, lode_shape: 0.8 })).toThrow(/^tc_ratio: .*\[0\.6887, 1\.452\]/);
   });
 });
