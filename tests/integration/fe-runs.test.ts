@@ -258,6 +258,29 @@ describe('a real fe-core run', () => {
     }
   });
 
+  it('a worker shut down gracefully mid-run finishes its increment and puts the run back; another worker solves it', async () => {
+    const runId = await submit(other);
+    const row = await until('frames of the first attempt', async () => {
+      const r = await runRow(runId);
+      const { rows } = await pool.query<{ n: string }>('SELECT count(*) AS n FROM run_frames WHERE run_id = $1', [runId]);
+      return r.state === 'running' && Number(rows[0]!.n) >= 3 ? r : null;
+    });
+    const leaving = workers.find((w) => w.id === row.worker_id)!;
+    await stopProcess(leaving.child, 'SIGTERM');
+    workers.splice(workers.indexOf(leaving), 1);
+    expect(leaving.child.exitCode).toBe(0);
+    const final = await until('the run to finish on the other worker', async () => {
+      const r = await runRow(runId);
+      return ['succeeded', 'failed', 'cancelled'].includes(r.state) ? r : null;
+    }, 90_000);
+    expect(final.state).toBe('succeeded');
+    expect(final.worker_id).not.toBe(leaving.id);
+    // A shutdown is not a failed attempt.
+    expect(final.attempts).toBe(1);
+    const { rows } = await pool.query<{ frame: number }>('SELECT frame FROM run_frames WHERE run_id = $1 ORDER BY frame', [runId]);
+    expect(rows.map((r) => r.frame)).toEqual(reference.frames.map((_, i) => i));
+  });
+
   it('deleting a run removes its stored results', async () => {
     await analyst.agent.delete(`/api/runs/${firstRunId}`).set('x-csrf-token', analyst.csrf).expect(204);
     const { rows } = await pool.query<{ n: string }>('SELECT (SELECT count(*) FROM run_artifacts WHERE run_id = $1) + (SELECT count(*) FROM run_frames WHERE run_id = $1) AS n', [firstRunId]);
