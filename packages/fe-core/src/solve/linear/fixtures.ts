@@ -116,19 +116,8 @@ export function laplace2d(nx: number): { A: CsrMatrix; coordinates: Float64Array
   return { A: csrFromTriplets(n, rows, cols, vals), coordinates, x, y };
 }
 
-/**
- * Q4 plane-stress square (nx × nx elements of the unit square, 2×2 Gauss, thickness 1) with
- * rollers on x = 0 (u_x = 0) and y = 0 (u_y = 0) and a uniform traction σ on x = 1. The exact
- * solution u_x = σx/E, u_y = −νσy/E is linear, so Q4 reproduces it at the nodes (patch test).
- * Unknowns are node-major; nodes on the rollers keep one unknown, the others two.
- */
-export function q4Patch(
-  nx: number,
-  E: number,
-  nu: number,
-  sigma: number,
-): { A: CsrMatrix; b: Float64Array; coordinates: Float64Array; exact: Float64Array; dofOf: Int32Array } {
-  const h = 1 / nx;
+/** 8×8 stiffness of a square Q4 of side h, plane stress, thickness 1, 2×2 Gauss (node-major u, v). */
+export function q4PlaneStressKe(E: number, nu: number, h: number): Float64Array {
   const c = E / (1 - nu * nu);
   const Dm = [c, c * nu, 0, c * nu, c, 0, 0, 0, (c * (1 - nu)) / 2];
   const Ke = new Float64Array(64);
@@ -154,6 +143,23 @@ export function q4Patch(
         }
     }
   }
+  return Ke;
+}
+
+/**
+ * Q4 plane-stress square (nx × nx elements of the unit square, 2×2 Gauss, thickness 1) with
+ * rollers on x = 0 (u_x = 0) and y = 0 (u_y = 0) and a uniform traction σ on x = 1. The exact
+ * solution u_x = σx/E, u_y = −νσy/E is linear, so Q4 reproduces it at the nodes (patch test).
+ * Unknowns are node-major; nodes on the rollers keep one unknown, the others two.
+ */
+export function q4Patch(
+  nx: number,
+  E: number,
+  nu: number,
+  sigma: number,
+): { A: CsrMatrix; b: Float64Array; coordinates: Float64Array; exact: Float64Array; dofOf: Int32Array } {
+  const h = 1 / nx;
+  const Ke = q4PlaneStressKe(E, nu, h);
   // Global dof numbering: node (i, j) → dofs, skipping constrained components.
   const nn = (nx + 1) * (nx + 1);
   const dofOf = new Int32Array(2 * nn).fill(-1);

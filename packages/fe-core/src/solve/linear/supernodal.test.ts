@@ -1,7 +1,7 @@
 import { recordCheck } from '@phaseloop/tests/support/verification';
 import { describe, expect, it } from 'vitest';
 import { csrResidual, norm2 } from './csr';
-import { csrFromTriplets, laplace2d, q4Patch, randomSparse } from './fixtures';
+import { csrFromTriplets, laplace2d, q4Patch, q4PlaneStressKe, randomSparse } from './fixtures';
 import { SupernodalLdlt } from './supernodal';
 import { SingularMatrixError, type CsrMatrix } from './types';
 
@@ -188,27 +188,8 @@ describe('multifrontal LDLᵀ', () => {
 
 /** Q4 square with u_x = 0 on x = 0 only (rigid y translation left free); node-major unknowns. */
 function q4FreeY(nx: number): { A: CsrMatrix; coordinates: Float64Array; isY: Uint8Array } {
-  const E = 1000, nu = 0.3, h = 1 / nx;
-  const c = E / (1 - nu * nu);
-  const Dm = [c, c * nu, 0, c * nu, c, 0, 0, 0, (c * (1 - nu)) / 2];
-  const g = 1 / Math.sqrt(3);
-  const xi = [-1, 1, 1, -1], eta = [-1, -1, 1, 1];
-  const Ke = new Float64Array(64);
-  for (const gx of [-g, g])
-    for (const gy of [-g, g]) {
-      const B = new Float64Array(24);
-      for (let a = 0; a < 4; a++) {
-        const dx = ((xi[a] * (1 + eta[a] * gy)) / 4) * (2 / h);
-        const dy = ((eta[a] * (1 + xi[a] * gx)) / 4) * (2 / h);
-        B[2 * a] = dx; B[8 + 2 * a + 1] = dy; B[16 + 2 * a] = dy; B[16 + 2 * a + 1] = dx;
-      }
-      for (let i = 0; i < 8; i++)
-        for (let j = 0; j < 8; j++) {
-          let s = 0;
-          for (let p = 0; p < 3; p++) for (let q = 0; q < 3; q++) s += B[p * 8 + i] * Dm[p * 3 + q] * B[q * 8 + j];
-          Ke[i * 8 + j] += (s * h * h) / 4;
-        }
-    }
+  const h = 1 / nx;
+  const Ke = q4PlaneStressKe(1000, 0.3, h);
   const nn = (nx + 1) * (nx + 1);
   const dof = new Int32Array(2 * nn).fill(-1);
   const coords: number[] = [];
