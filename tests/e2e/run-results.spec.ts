@@ -16,10 +16,11 @@ test.describe.serial('run monitor and results', () => {
   test('analyst submits a strut-cell study and opens its results', async ({ page }) => {
     test.setTimeout(600_000);
     await signInViaApi(page.request, 'analyst');
-    // The stent project, which the demo viewer belongs to as well (opening a project makes it current).
-    await page.goto('/projects');
-    await page.getByTestId('projects-table').getByRole('link', { name: DEMO_PROJECT }).click();
-    await waitForData(page);
+    // The stent project, which the demo viewer belongs to as well, made current as the switcher does.
+    const { items } = (await (await page.request.get('/api/projects')).json()) as { items: { id: string; name: string }[] };
+    const stent = items.find((p) => p.name === DEMO_PROJECT);
+    expect(stent, DEMO_PROJECT).toBeTruthy();
+    await page.addInitScript((id) => localStorage.setItem('phaseloop.currentProject', id), stent?.id ?? '');
     await page.goto('/studies/new?template=stent-strut');
     await waitForData(page);
     await page.getByTestId('study-name').fill('E2E strut cell run');
@@ -49,12 +50,14 @@ test.describe.serial('run monitor and results', () => {
     const box = await canvas.boundingBox();
     expect(box).not.toBeNull();
     // The mesh sits in the middle of the fitted view; probe a few points near the centre until one hits it.
+    let attempt = 0;
     await expect(async () => {
-      const dx = (Math.random() - 0.5) * 0.2 * (box?.width ?? 0);
-      const dy = (Math.random() - 0.5) * 0.2 * (box?.height ?? 0);
+      const spread = attempt++ === 0 ? 0 : 0.2;
+      const dx = (Math.random() - 0.5) * spread * (box?.width ?? 0);
+      const dy = (Math.random() - 0.5) * spread * (box?.height ?? 0);
       await canvas.click({ position: { x: (box?.width ?? 0) / 2 + dx, y: (box?.height ?? 0) / 2 + dy } });
-      await expect(page.getByTestId('results-probe-value')).toContainText('martensite fraction ξ =', { timeout: 1000 });
-    }).toPass({ timeout: 30_000 });
+      await expect(page.getByTestId('results-probe-value')).toContainText('martensite fraction ξ =', { timeout: 5000 });
+    }).toPass({ timeout: 60_000 });
     await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'results.png'), fullPage: true });
 
     const vtuLink = page.getByTestId('results-vtu');
