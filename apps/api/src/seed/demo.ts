@@ -3,6 +3,7 @@
  * name says "(demo)" or "(demo values)", and no number here describes a real alloy or product.
  * Safe to run again: an existing demo admin means the demo is already there.
  */
+import { templates } from '@phaseloop/fe-core';
 import type { Sequelize } from 'sequelize';
 import { QueryTypes } from 'sequelize';
 import { materialParamsSchema, type MaterialParams } from '@phaseloop/shared';
@@ -84,30 +85,15 @@ export async function seedDemo(sequelize: Sequelize): Promise<{ created: boolean
 
     await Study.create(
       {
-        projectId: stent.id, name: 'Strut cell loop at 37 °C (demo)', description: 'Load and unload one strut cell at body temperature.', isDemo: true, createdBy: analyst.id,
-        definition: {
-          template: 'stent-strut-cell', materials: [{ region: 'all', materialVersionId: seV.id }], estimatedNodes: 1200,
-          geometry: { strutWidth: 0.1, strutThickness: 0.1, cellLength: 2.0, crownRadius: 0.15 },
-          history: [
-            { name: 'crimp', duration: 1, displacement: -0.4, temperature: 37 },
-            { name: 'release', duration: 1, displacement: 0, temperature: 37 },
-          ],
-        },
+        projectId: stent.id, name: 'Strut cell deployment (demo)', description: 'Crimp, release into the vessel and pulsate one strut cell (template defaults, demo values).', isDemo: true, createdBy: analyst.id,
+        definition: templateDefinition('stent-strut', se.id, seV.id),
       },
       { transaction },
     );
     await Study.create(
       {
-        projectId: actuator.id, name: 'Wire under 150 MPa, heat and cool (demo)', description: 'Stroke of a wire under a dead load through one thermal cycle.', isDemo: true, createdBy: analyst.id,
-        definition: {
-          template: 'actuator-wire', materials: [{ region: 'all', materialVersionId: actV.id }], estimatedNodes: 200,
-          geometry: { length: 50, diameter: 0.25 },
-          history: [
-            { name: 'load', duration: 1, stress: 150, temperature: 20 },
-            { name: 'heat', duration: 1, stress: 150, temperature: 110 },
-            { name: 'cool', duration: 1, stress: 150, temperature: 20 },
-          ],
-        },
+        projectId: actuator.id, name: 'Actuator wire thermal cycle (demo)', description: 'Stroke of a wire under a dead load, heated and cooled (template defaults, demo values).', isDemo: true, createdBy: analyst.id,
+        definition: templateDefinition('actuator-wire', act.id, actV.id),
       },
       { transaction },
     );
@@ -120,4 +106,22 @@ export async function seedDemo(sequelize: Sequelize): Promise<{ created: boolean
     );
   });
   return { created: true };
+}
+
+/**
+ * A demo study as the study editor saves one: the template's parameters (defaults, demo values)
+ * to reopen the form, and the solver model built from them with its material taken from the
+ * project library by version.
+ */
+function templateDefinition(name: 'stent-strut' | 'actuator-wire', materialId: string, versionId: string): Record<string, unknown> & { materials: { region: string; materialVersionId: string }[] } {
+  const template = templates[name];
+  const params = template.paramsSchema.parse({ template: name });
+  const model = template.build(params);
+  const reference = { materialVersionId: versionId };
+  return {
+    template: name, params, materialId,
+    materials: [{ region: 'all', materialVersionId: versionId }],
+    model: { ...model, materials: Object.fromEntries(Object.keys(model.materials).map((key) => [key, reference])) },
+    estimatedNodes: model.nodes.length,
+  };
 }
