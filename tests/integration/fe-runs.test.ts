@@ -139,11 +139,12 @@ describe('a real fe-core run', () => {
     const runId = await submit(analyst);
     firstRunId = runId;
     const sockets: Socket[] = [await openSocket(api.url, analyst), await openSocket(api.url, other)];
-    const seen = sockets.map(() => ({ status: [] as string[], frames: [] as RunFrameEvent[], iterations: [] as RunIterationEvent[] }));
+    const seen = sockets.map(() => ({ status: [] as string[], frames: [] as RunFrameEvent[], iterations: [] as RunIterationEvent[], logs: [] as string[] }));
     sockets.forEach((s, i) => {
       s.on(RUN_SOCKET_EVENTS.status, (e: RunStatusEvent) => seen[i]!.status.push(e.state));
       s.on(RUN_SOCKET_EVENTS.frame, (e: RunFrameEvent) => seen[i]!.frames.push(e));
       s.on(RUN_SOCKET_EVENTS.iteration, (e: RunIterationEvent) => seen[i]!.iterations.push(e));
+      s.on(RUN_SOCKET_EVENTS.log, (e: { message: string }) => seen[i]!.logs.push(e.message));
     });
     for (const s of sockets) expect(await watch(s, runId)).toEqual({ ok: true });
     const done = sockets.map((s) => waitForState(s, runId, ['succeeded', 'failed', 'cancelled']));
@@ -158,6 +159,7 @@ describe('a real fe-core run', () => {
     expect(seen[1]!.frames).toEqual(seen[0]!.frames);
     expect(seen[1]!.iterations.length).toBe(seen[0]!.iterations.length);
     expect(seen[0]!.status).toContain('running');
+    expect(seen[1]!.logs).toContain(`Model: ${strip.nodes.length} nodes, ${strip.elements.length} elements, 2 segment(s)`);
     // One frame per converged increment the solver kept, with the summary of the fields.
     expect(seen[0]!.frames).toHaveLength(reference.frames.length);
     const last = seen[0]!.frames.at(-1)!;

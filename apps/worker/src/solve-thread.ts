@@ -44,6 +44,7 @@ function solve(input: ThreadInput): void {
     return;
   }
   const fields = parsed.model.output.fields;
+  post({ type: 'log', level: 'info', message: `Model: ${parsed.model.nodes.length} nodes, ${parsed.model.elements.length} elements, ${parsed.model.segments.length} segment(s)` });
   const encoder = new TextEncoder();
   let stopAfterFrame = false;
   const result = runAnalysis(problem, {
