@@ -151,13 +151,14 @@ export class LodeGauge {
 
   constructor(readonly shape: LodeShape) {}
 
-  private k(phi: number): number {
-    return lodeK(this.shape, Math.cos(3 * phi)).K;
-  }
+  /** dk/dφ of the last kAt() call. */
+  private kPhi = 0;
 
-  /** dk/dφ */
-  private k1(phi: number): number {
-    return lodeK(this.shape, Math.cos(3 * phi)).K1 * -3 * Math.sin(3 * phi);
+  /** k(φ) = K(cos 3φ); also leaves dk/dφ in kPhi. */
+  private kAt(phi: number): number {
+    const r = lodeK(this.shape, Math.cos(3 * phi));
+    this.kPhi = r.K1 * -3 * Math.sin(3 * phi);
+    return r.K;
   }
 
   /** Value of g for a deviatoric KM vector. */
@@ -276,18 +277,18 @@ export class LodeGauge {
     const lh = lam * h;
     // free branch: maximise M(φ) = (c − λτk)/√(1 + λh k²), c = ρ_v cos(φ − φ_v)
     const M = (phi: number) => {
-      const k = this.k(phi);
+      const k = this.kAt(phi);
       return (rv * Math.cos(phi - pv) - lt * k) / Math.sqrt(1 + lh * k * k);
     };
     const dM = (phi: number) => {
-      const k = this.k(phi);
-      const k1 = this.k1(phi);
+      const k = this.kAt(phi);
+      const k1 = this.kPhi;
       const cc = rv * Math.cos(phi - pv);
       const c1 = -rv * Math.sin(phi - pv);
       return (c1 - lt * k1) * (1 + lh * k * k) - (cc - lt * k) * lh * k * k1;
     };
     let phi = this.maximise(M, dM, pv);
-    let k = this.k(phi);
+    let k = this.kAt(phi);
     const top = rv * Math.cos(phi - pv) - lt * k;
     let regime: 0 | 1 | 2 = 1;
     let rho: number;
@@ -299,16 +300,16 @@ export class LodeGauge {
       if (rho * k > epsL) {
         // on the surface g = ε_L: maximise Q(φ) = c/k − ε_L/(2k²)
         const Q = (p: number) => {
-          const kk = this.k(p);
+          const kk = this.kAt(p);
           return (rv * Math.cos(p - pv)) / kk - epsL / (2 * kk * kk);
         };
         const dQ = (p: number) => {
-          const kk = this.k(p);
-          const k1 = this.k1(p);
+          const kk = this.kAt(p);
+          const k1 = this.kPhi;
           return -rv * Math.sin(p - pv) * kk - rv * Math.cos(p - pv) * k1 + (epsL * k1) / kk;
         };
         phi = this.maximise(Q, dQ, pv);
-        k = this.k(phi);
+        k = this.kAt(phi);
         rho = epsL / k;
         regime = 2;
       }
