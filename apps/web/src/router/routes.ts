@@ -101,6 +101,13 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Admin', siteAdmin: true },
   },
   {
+    path: '/bench/viewport',
+    name: 'bench-viewport',
+    component: () => import('@/views/ViewportBenchView.vue'),
+    props: (route) => ({ cells: typeof route.query.cells === 'string' ? route.query.cells : undefined }),
+    meta: { title: 'Viewport bench', minimumRole: 'viewer' },
+  },
+  {
     path: '/:pathMatch(.*)*',
     name: 'not-found',
     component: () => import('@/views/NotFoundView.vue'),
