@@ -110,12 +110,15 @@ export const souzaAuricchioSchema = z.object({
   R: smaPositive('R (elastic domain radius, MPa)'),
   eps_L: smaPositive('eps_L (maximum transformation strain norm)').max(0.2, { error: 'eps_L must be ≤ 0.2' }),
   /** Default 1 (symmetric); optional so parameter sets written before it stay valid as they are. */
-  tc_ratio: smaPositive('tc_ratio (tension/compression ratio of the maximum transformation strain)').optional(),
+  tc_ratio: smaPositive('tc_ratio (tension/compression ratio of the maximum transformation strain)')
+    .optional()
+    .describe('Tension/compression ratio of the maximum uniaxial transformation strain (= compression/tension ratio of the stress–temperature slopes); default 1 (symmetric).'),
   /** Default 0 (no Lode-angle dependence). */
   lode_shape: smaNumber('lode_shape (Lode-angle shape γ)')
     .min(0, { error: 'lode_shape must be ≥ 0' })
     .lt(1, { error: 'lode_shape must be < 1' })
-    .optional(),
+    .optional()
+    .describe('Lode-angle shape γ (Bigoni–Piccolroaz 2004), 0 ≤ γ < 1; bounds the reachable tc_ratio; default 0.'),
   /** Superseded by tc_ratio and lode_shape; only 0 (symmetric) is accepted. */
   asymmetry: smaNumber('asymmetry')
     .refine((v: number): boolean => v === 0, { error: 'asymmetry is replaced by tc_ratio and lode_shape: remove it (or set 0) and give those instead' })
