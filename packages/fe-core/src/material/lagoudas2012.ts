@@ -69,18 +69,61 @@ function zero6(a: Float64Array): void {
   for (let i = 0; i < 6; i++) a[i] = 0;
 }
 
+/** Internal variables of one material point: εᵗ, ξ, the reversal memory εᵗʳ, ξʳ and (plastic) εᵖ, p. */
+class InternalState {
+  readonly et = new Float64Array(6);
+  readonly etr = new Float64Array(6);
+  xi = 0;
+  xir = 0;
+  readonly ep = new Float64Array(6);
+  p = 0;
+
+  copyFrom(o: InternalState): void {
+    copy6(o.et, this.et);
+    copy6(o.etr, this.etr);
+    copy6(o.ep, this.ep);
+    this.p = o.p;
+    this.xi = o.xi;
+    this.xir = o.xir;
+  }
+
+  /** Reads the stored layout (ET, XI, ETR, XIR, then EP, PEQ when plastic). */
+  load(state: Float64Array, offset: number, plastic: boolean): void {
+    for (let i = 0; i < 6; i++) {
+      this.et[i] = state[offset + ET + i];
+      this.etr[i] = state[offset + ETR + i];
+    }
+    this.xi = state[offset + XI];
+    this.xir = state[offset + XIR];
+    if (plastic) {
+      for (let i = 0; i < 6; i++) this.ep[i] = state[offset + EP + i];
+      this.p = state[offset + PEQ];
+    }
+  }
+
+  store(state: Float64Array, offset: number, plastic: boolean): void {
+    for (let i = 0; i < 6; i++) {
+      state[offset + ET + i] = this.et[i];
+      state[offset + ETR + i] = this.etr[i];
+    }
+    state[offset + XI] = this.xi;
+    state[offset + XIR] = this.xir;
+    if (plastic) {
+      for (let i = 0; i < 6; i++) state[offset + EP + i] = this.ep[i];
+      state[offset + PEQ] = this.p;
+    }
+  }
+}
+
 export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   readonly model = 'lagoudas2012';
   readonly stateSize: number;
 
   // Base state of the current phase (start of increment, or the intermediate state after a
   // reverse phase that is followed by a forward one).
-  private readonly etB = new Float64Array(6);
-  private readonly etrB = new Float64Array(6);
-  private xiB = 0;
-  private xirB = 0;
-  private readonly epB = new Float64Array(6);
-  private pB = 0;
+  private readonly base = new InternalState();
+  /** The base at the start of the last phase, so its end state can be re-evaluated with the right Δξ. */
+  private readonly phaseStart = new InternalState();
   private readonly lamR = new Float64Array(6);
 
   // Loading of the current evaluation.
@@ -170,7 +213,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   private knownStrain(xi: number): void {
     const p = this.params;
     const th = (p.alpha_A + xi * p.dAlpha) * (this.temp - p.T_ref);
-    for (let i = 0; i < 6; i++) this.estar[i] = this.eps[i] - this.etB[i] - this.epB[i];
+    for (let i = 0; i < 6; i++) this.estar[i] = this.eps[i] - this.base.et[i] - this.base.ep[i];
     this.estar[0] -= th;
     this.estar[1] -= th;
     this.estar[2] -= th;
@@ -274,7 +317,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
    */
   private evalForward(xi: number, derivatives = true): number {
     const p = this.params;
-    const dxi = xi - this.xiB;
+    const dxi = xi - this.base.xi;
     const s = this.compliance(xi);
     this.sC = s;
     this.knownStrain(xi);
@@ -312,9 +355,9 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     }
     if (!converged) this.failure = 'forward transformation: stress equation did not converge';
     let dp = 0;
-    if (p.plastic && x > p.yA + xi * p.dY + p.Hiso * this.pB) {
+    if (p.plastic && x > p.yA + xi * p.dY + p.Hiso * this.base.p) {
       dp = this.plasticForward(xi, dxi, c, target);
-      x = p.yA + xi * p.dY + p.Hiso * (this.pB + dp);
+      x = p.yA + xi * p.dY + p.Hiso * (this.base.p + dp);
       this.transformationTerms(x);
       ({ hH: H, hHp: Hp, hG: g, hGp: gp } = this);
     }
@@ -349,7 +392,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     let hi = target / 1.5;
     let dp = 0;
     for (let it = 0; it < MAX_INNER; it++) {
-      const y = p.yA + xi * p.dY + p.Hiso * (this.pB + dp);
+      const y = p.yA + xi * p.dY + p.Hiso * (this.base.p + dp);
       this.transformationTerms(y);
       const { hH: H, hHp: Hp, hG: g, hGp: gp } = this;
       const phi = c * y + 1.5 * dxi * H * g + 1.5 * dp - target;
@@ -390,7 +433,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   /** Reverse: σ explicit for a given ξ ≤ ξ_base (direction Λ_r = εᵗʳ/ξʳ frozen). */
   private evalReverse(xi: number, derivatives = true): number {
     const p = this.params;
-    const dxi = xi - this.xiB;
+    const dxi = xi - this.base.xi;
     const s = this.compliance(xi);
     this.sC = s;
     const c = s * (1 + p.nu);
@@ -403,7 +446,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     let sbar = (SQ32 * enorm) / c;
     let dp = 0;
     if (p.plastic) {
-      const y0 = p.yA + xi * p.dY + p.Hiso * this.pB;
+      const y0 = p.yA + xi * p.dY + p.Hiso * this.base.p;
       if (sbar > y0) {
         dp = (SQ32 * enorm - c * y0) / (c * p.Hiso + 1.5);
         sbar = y0 + p.Hiso * dp;
@@ -431,8 +474,8 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
 
   /** Sets the frozen reverse direction from the base memory (guarding ξʳ → 0). */
   private setReverseDirection(): void {
-    const inv = this.xirB > 1e-12 ? 1 / this.xirB : 0;
-    for (let i = 0; i < 6; i++) this.lamR[i] = this.etrB[i] * inv;
+    const inv = this.base.xir > 1e-12 ? 1 / this.base.xir : 0;
+    for (let i = 0; i < 6; i++) this.lamR[i] = this.base.etr[i] * inv;
   }
 
   /**
@@ -445,9 +488,9 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     const phiBound = this.evalDir(dir, bound);
     if (phiBound >= 0) return bound;
     // pos: Φ > 0 side (base), neg: Φ < 0 side (bound)
-    let pos = this.xiB;
+    let pos = this.base.xi;
     let neg = bound;
-    let x = this.xiB;
+    let x = this.base.xi;
     let phi = this.evalDir(dir, x);
     for (let it = 0; it < MAX_OUTER; it++) {
       if (phi > 0) pos = x;
@@ -468,27 +511,13 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     return x;
   }
 
-  /** Loads the base state from stored state. */
-  private loadBase(state: Float64Array, offset: number): void {
-    for (let i = 0; i < 6; i++) {
-      this.etB[i] = state[offset + ET + i];
-      this.etrB[i] = state[offset + ETR + i];
-    }
-    this.xiB = state[offset + XI];
-    this.xirB = state[offset + XIR];
-    if (this.params.plastic) {
-      for (let i = 0; i < 6; i++) this.epB[i] = state[offset + EP + i];
-      this.pB = state[offset + PEQ];
-    }
-  }
-
   /**
    * Trial values of Φ_fwd and Φ_rev with the base internal state frozen (−∞ where not allowed).
    * Both evaluations are at Δξ = 0, so either leaves the elastic trial stress in the buffers.
    */
   private trialPhis(out: { fwd: number; rev: number }): void {
-    out.fwd = this.xiB < 1 ? this.evalFromBase('forward', this.xiB, false) : -Infinity;
-    out.rev = this.xiB > 0 ? this.evalFromBase('reverse', this.xiB, false) : -Infinity;
+    out.fwd = this.base.xi < 1 ? this.evalFromBase('forward', this.base.xi, false) : -Infinity;
+    out.rev = this.base.xi > 0 ? this.evalFromBase('reverse', this.base.xi, false) : -Infinity;
   }
 
   private readonly trial = { fwd: 0, rev: 0 };
@@ -497,7 +526,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
   /** Runs one phase from the base state and moves the base to its end. */
   private runPhase(dir: Direction): boolean {
     if (dir === 'reverse') this.setReverseDirection();
-    this.snapshotPhaseStart();
+    this.phaseStart.copyFrom(this.base);
     const xi = this.solveFraction(dir);
     this.commitPhaseEnd(xi, dir);
     return dir === 'forward' ? xi < 1 : xi > 0;
@@ -512,7 +541,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
     out: MaterialPointOutput,
   ): void {
     this.failure = '';
-    this.loadBase(stateOld, oldOffset);
+    this.base.load(stateOld, oldOffset, this.params.plastic);
     for (let i = 0; i < 6; i++) this.eps[i] = input.strain[i];
     this.temp = input.temperature;
     const tol = this.tolPhi;
@@ -542,9 +571,9 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       // the next increment instead of failing this one, and the tangent is the last phase's.
       let next: Direction = first === 'forward' ? 'reverse' : 'forward';
       for (let k = 0; k < MAX_PHASES; k++) {
-        const allowed = next === 'forward' ? this.xiB < 1 : this.xiB > 0;
+        const allowed = next === 'forward' ? this.base.xi < 1 : this.base.xi > 0;
         if (!allowed) break;
-        if (!(this.evalFromBase(next, this.xiB, false) > tol)) break;
+        if (!(this.evalFromBase(next, this.base.xi, false) > tol)) break;
         transforming = this.runPhase(next);
         mode = next;
         next = next === 'forward' ? 'reverse' : 'forward';
@@ -552,7 +581,7 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
       // re-evaluate at the end state of the last phase for stress and tangent
       this.reevaluateEnd(mode);
     } else this.commitPlastic(); // no transformation: the trial evaluation (Δξ = 0) holds σ, Ξ and Δp
-    this.writeState(state, newOffset);
+    this.base.store(state, newOffset, this.params.plastic);
     for (let i = 0; i < 6; i++) out.stress[i] = this.sig[i];
     this.writeTangent(out.tangent, mode !== 'elastic' && transforming);
     let finite = true;
@@ -566,73 +595,34 @@ export class Lagoudas2012Material implements Material<Lagoudas2012Constants> {
    * from the start of the last phase, so stress and tangent carry that phase's Δξ.
    */
   private reevaluateEnd(mode: Direction): void {
-    const xi = this.xiB;
-    this.restorePhaseStart();
+    const xi = this.base.xi;
+    this.base.copyFrom(this.phaseStart);
     this.evalFromBase(mode, xi, true);
     this.commitPhaseEnd(xi, mode);
-  }
-
-  // Phase-start snapshot so the end state can be re-evaluated with the right Δξ.
-  private readonly psEt = new Float64Array(6);
-  private readonly psEtr = new Float64Array(6);
-  private psXi = 0;
-  private psXir = 0;
-  private readonly psEp = new Float64Array(6);
-  private psP = 0;
-
-  private snapshotPhaseStart(): void {
-    copy6(this.etB, this.psEt);
-    copy6(this.etrB, this.psEtr);
-    copy6(this.epB, this.psEp);
-    this.psP = this.pB;
-    this.psXi = this.xiB;
-    this.psXir = this.xirB;
-  }
-
-  private restorePhaseStart(): void {
-    copy6(this.psEt, this.etB);
-    copy6(this.psEtr, this.etrB);
-    copy6(this.psEp, this.epB);
-    this.pB = this.psP;
-    this.xiB = this.psXi;
-    this.xirB = this.psXir;
   }
 
   /** Adds the plastic increment of the last evaluation to the base. */
   private commitPlastic(): void {
     if (!(this.dpC > 0)) return;
     const d = SQ32 * this.dpC;
-    for (let i = 0; i < 6; i++) this.epB[i] += d * this.nhat[i];
-    this.pB += this.dpC;
+    for (let i = 0; i < 6; i++) this.base.ep[i] += d * this.nhat[i];
+    this.base.p += this.dpC;
   }
 
   private commitPhaseEnd(xi: number, dir: Direction): void {
     this.commitPlastic();
-    const dxi = xi - this.xiB;
+    const dxi = xi - this.base.xi;
     const lam = dir === 'forward' ? this.lam : this.lamR;
-    for (let i = 0; i < 6; i++) this.etB[i] += dxi * lam[i];
-    this.xiB = xi;
+    for (let i = 0; i < 6; i++) this.base.et[i] += dxi * lam[i];
+    this.base.xi = xi;
     if (dir === 'forward') {
-      copy6(this.etB, this.etrB);
-      this.xirB = xi;
+      copy6(this.base.et, this.base.etr);
+      this.base.xir = xi;
     } else if (xi <= 0) {
-      this.xiB = 0;
-      zero6(this.etB);
-      zero6(this.etrB);
-      this.xirB = 0;
-    }
-  }
-
-  private writeState(state: Float64Array, offset: number): void {
-    for (let i = 0; i < 6; i++) {
-      state[offset + ET + i] = this.etB[i];
-      state[offset + ETR + i] = this.etrB[i];
-    }
-    state[offset + XI] = this.xiB;
-    state[offset + XIR] = this.xirB;
-    if (this.params.plastic) {
-      for (let i = 0; i < 6; i++) state[offset + EP + i] = this.epB[i];
-      state[offset + PEQ] = this.pB;
+      this.base.xi = 0;
+      zero6(this.base.et);
+      zero6(this.base.etr);
+      this.base.xir = 0;
     }
   }
 
