@@ -22,9 +22,12 @@ export function registerAdminRoutes(api: ApiRouter, ctx: AppContext): void {
       handler: async () => ({ items: await listAdminUsers(ctx.sequelize) }),
     })
     .add({
-      method: 'patch', path: '/admin/users/:id', tag, access: 'site-admin', summary: 'Make site admin, disable or rename a user',
+      method: 'patch', path: '/admin/users/:id', tag, access: 'site-admin', summary: 'Make site admin, disable or rename a user, or set their quotas (runs at once, model size)',
       params: idParams,
-      body: z.object({ isAdmin: z.boolean().optional(), disabled: z.boolean().optional(), name: z.string().trim().min(1).max(200).optional() }),
+      body: z.object({
+        isAdmin: z.boolean().optional(), disabled: z.boolean().optional(), name: z.string().trim().min(1).max(200).optional(),
+        maxActiveRuns: z.number().int().min(1).max(1000).optional(), maxNodes: z.number().int().min(1).max(10_000_000).optional(),
+      }),
       response: userDto,
       handler: ({ user, params, body }) => updateUser(ctx.sequelize, user, params.id, body),
     })

@@ -15,6 +15,8 @@ import { audit } from '../audit/audit.service';
 export const userDto = z.object({
   id: z.string(), email: z.string(), name: z.string(), isAdmin: z.boolean(), disabled: z.boolean(),
   createdAt: z.string(), lastLoginAt: z.string().nullable(),
+  /** Quotas set by admins: runs solved at once, model size in nodes. */
+  maxActiveRuns: z.number().int().optional(), maxNodes: z.number().int().optional(),
 });
 export const membershipDto = z.object({ projectId: z.string(), projectName: z.string(), role: z.enum(ROLES) });
 export const password = z.string().min(MIN_PASSWORD_LENGTH, { error: `Use at least ${MIN_PASSWORD_LENGTH} characters` }).max(200);

@@ -86,4 +86,16 @@ describe('studies', () => {
     expect(queue.sent.filter((id) => id === runs[2].id)).toHaveLength(2);
     expect((await client.post(`/api/runs/${runs[0].id}/priority`).send({ priority: 1 })).status).toBe(403);
   });
+
+  it('an admin sets the model-size quota; a study over it answers 429 naming the limit', async () => {
+    const { project, client, user, model } = await setUp();
+    const study = (await client.post(`/api/projects/${project.id}/studies`).send({ name: 'Big', definition: { model } }).expect(201)).body;
+    const admin = await t.signIn({ isAdmin: true });
+    const patched = (await admin.client.patch(`/api/admin/users/${user.id}`).send({ maxNodes: 20 }).expect(200)).body;
+    expect(patched.maxNodes).toBe(20);
+    const refused = await client.post(`/api/studies/${study.id}/runs`).expect(429);
+    // examples/superelastic-strip.json has 33 nodes.
+    expect(refused.body.error.message).toContain('33 nodes');
+    expect(refused.body.error.details).toMatchObject({ limit: 'maxNodes', value: 33, max: 20 });
+  });
 });

@@ -16,6 +16,8 @@ export interface UserDto {
   disabled: boolean;
   createdAt: string;
   lastLoginAt: string | null;
+  maxActiveRuns?: number;
+  maxNodes?: number;
 }
 
 export interface MembershipDto {
@@ -28,6 +30,7 @@ export function toUserDto(u: User): UserDto {
   return {
     id: u.id, email: u.email, name: u.name, isAdmin: u.isAdmin, disabled: u.disabled,
     createdAt: u.createdAt.toISOString(), lastLoginAt: u.lastLoginAt ? u.lastLoginAt.toISOString() : null,
+    maxActiveRuns: u.maxActiveRuns, maxNodes: u.maxNodes,
   };
 }
 
@@ -54,7 +57,7 @@ export async function updateUser(
   sequelize: Sequelize,
   actor: SessionUser,
   id: string,
-  patch: { isAdmin?: boolean; disabled?: boolean; name?: string },
+  patch: { isAdmin?: boolean; disabled?: boolean; name?: string; maxActiveRuns?: number; maxNodes?: number },
 ): Promise<UserDto> {
   const user = await User.findByPk(id);
   if (!user) throw notFound('User');
