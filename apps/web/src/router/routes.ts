@@ -89,6 +89,13 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Materials', minimumRole: 'viewer', perProject: true },
   },
   {
+    path: '/materials/:id',
+    name: 'material-detail',
+    component: () => import('@/views/MaterialDetailView.vue'),
+    props: true,
+    meta: { title: 'Material', minimumRole: 'viewer' },
+  },
+  {
     path: '/test-data',
     name: 'test-data',
     component: () => import('@/views/TestDataView.vue'),
