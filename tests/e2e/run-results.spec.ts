@@ -6,7 +6,7 @@
  */
 import path from 'node:path';
 import { expect, test } from '@playwright/test';
-import { ARTIFACTS, DEMO_PROJECT, signInViaApi, waitForData } from './support';
+import { ARTIFACTS, DEMO_PROJECT, horizontalOverflow, signInViaApi, waitForData } from './support';
 
 let runPath = '';
 let runId = '';
@@ -59,6 +59,12 @@ test.describe.serial('run monitor and results', () => {
       await expect(page.getByTestId('results-probe-value')).toContainText('martensite fraction ξ =', { timeout: 5000 });
     }).toPass({ timeout: 60_000 });
     await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'results.png'), fullPage: true });
+    // Layouts hold at both desktop sizes.
+    expect(await horizontalOverflow(page), 'results at 1280×800 overflow sideways').toBeLessThanOrEqual(0);
+    await page.setViewportSize({ width: 1920, height: 1080 });
+    expect(await horizontalOverflow(page), 'results at 1920×1080 overflow sideways').toBeLessThanOrEqual(0);
+    await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'results-1920x1080.png'), fullPage: true });
+    await page.setViewportSize({ width: 1280, height: 800 });
 
     const vtuLink = page.getByTestId('results-vtu');
     await expect(vtuLink).toBeVisible();

@@ -5,7 +5,7 @@
  */
 import path from 'node:path';
 import { expect, test } from '@playwright/test';
-import { ARTIFACTS, signInViaApi, waitForData } from './support';
+import { ARTIFACTS, horizontalOverflow, signInViaApi, waitForData } from './support';
 
 test.describe('study builder', () => {
   test('analyst builds a strut-cell study: preview, invalid width refused, save', async ({ page }) => {
@@ -20,6 +20,11 @@ test.describe('study builder', () => {
     await expect(page.getByTestId('mesh-stats')).toContainText(/\d+ nodes · \d+ elements/);
     await expect(page.getByTestId('study-estimate')).toContainText('nodes');
     await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'study-builder.png'), fullPage: true });
+    expect(await horizontalOverflow(page), 'study builder at 1280×800 overflows sideways').toBeLessThanOrEqual(0);
+    await page.setViewportSize({ width: 1920, height: 1080 });
+    expect(await horizontalOverflow(page), 'study builder at 1920×1080 overflows sideways').toBeLessThanOrEqual(0);
+    await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'study-builder-1920x1080.png'), fullPage: true });
+    await page.setViewportSize({ width: 1280, height: 800 });
 
     // Negative width: the field says what is wrong, saving is blocked, the preview is withdrawn.
     const width = page.getByTestId('param-strutWidth').locator('input');
