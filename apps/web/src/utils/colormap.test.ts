@@ -1,0 +1,38 @@
+import { describe, expect, it } from 'vitest';
+import { sampleInto } from './colormap';
+
+const hex = (rgb: number[]) => '#' + rgb.map((c) => Math.round(c * 255).toString(16).padStart(2, '0')).join('');
+
+describe('colour maps', () => {
+  it('viridis ends at the published end colours #440154 and #fde725', () => {
+    // Reference: the viridis map of van der Walt & Smith (matplotlib, 2015): first entry #440154, last #fde725.
+    const low = [0, 0, 0];
+    const high = [0, 0, 0];
+    sampleInto('viridis', 0, low);
+    sampleInto('viridis', 1, high);
+    expect(hex(low)).toBe('#440154');
+    expect(hex(high)).toBe('#fde725');
+  });
+
+  it('viridis lightness rises monotonically (perceptually ordered, so higher values read lighter)', () => {
+    // Relative luminance per ITU-R BT.709 coefficients on the sRGB components.
+    let previous = -1;
+    for (let k = 0; k <= 50; k++) {
+      const c = [0, 0, 0];
+      sampleInto('viridis', k / 50, c);
+      const y = 0.2126 * c[0]! + 0.7152 * c[1]! + 0.0722 * c[2]!;
+      expect(y).toBeGreaterThan(previous);
+      previous = y;
+    }
+  });
+
+  it('clamps values outside [0, 1] and NaN to the ends', () => {
+    const a = [0, 0, 0];
+    const b = [0, 0, 0];
+    sampleInto('cividis', -3, a);
+    sampleInto('cividis', 0, b);
+    expect(a).toEqual(b);
+    sampleInto('cividis', Number.NaN, a);
+    expect(a).toEqual(b);
+  });
+});
