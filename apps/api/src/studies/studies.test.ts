@@ -4,6 +4,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
+import { templateParamsSchema } from '@phaseloop/shared';
 import { createTestApp, RecordingQueue, type TestApp } from '../testing/test-app';
 
 const strip = JSON.parse(readFileSync(new URL('../../../../examples/superelastic-strip.json', import.meta.url), 'utf8')) as { materials: Record<string, unknown> } & Record<string, unknown>;
@@ -38,6 +39,21 @@ describe('studies', () => {
     const noSegments = { ...model, segments: [] };
     const bad2 = await client.post(`/api/projects/${project.id}/studies`).send({ name: 'Strip 3', definition: { model: noSegments } }).expect(422);
     expect(bad2.body.error.details).toContainEqual({ path: 'definition.model.segments', message: 'a model needs at least one segment' });
+  });
+
+  it('refuses invalid template parameters sent directly, naming the field (negative width, zero increments)', async () => {
+    const { project, client, model } = await setUp();
+    const defaults = templateParamsSchema.parse({ template: 'stent-strut' });
+    const good = await client.post(`/api/projects/${project.id}/studies`).send({ name: 'Strut', definition: { model, params: defaults } });
+    expect(good.status, JSON.stringify(good.body)).toBe(201);
+
+    const negativeWidth = { ...defaults, strutWidth: -0.1 };
+    const bad = await client.post(`/api/projects/${project.id}/studies`).send({ name: 'Strut 2', definition: { model, params: negativeWidth } }).expect(422);
+    expect(bad.body.error.details).toContainEqual({ path: 'definition.params.strutWidth', message: expect.stringContaining('strutWidth') });
+
+    const zeroIncrements = { ...defaults, history: defaults.history.map((seg, i) => (i === 0 ? { ...seg, increments: 0 } : seg)) };
+    const bad2 = await client.post(`/api/projects/${project.id}/studies`).send({ name: 'Strut 3', definition: { model, params: zeroIncrements } }).expect(422);
+    expect(bad2.body.error.details).toContainEqual({ path: 'definition.params.history.0.increments', message: expect.stringContaining('increments') });
   });
 
   it('duplicates, soft-deletes and filters', async () => {

@@ -6,7 +6,7 @@
  * instead; both kinds of reference are frozen into a run.
  */
 import { z } from 'zod';
-import { modelSize, referencedMaterialVersions } from '@phaseloop/shared';
+import { modelSize, referencedMaterialVersions, templateParamsSchema } from '@phaseloop/shared';
 
 export const materialAssignmentSchema = z.object({
   /** Element set / region name of the template or mesh that gets this material. */
@@ -21,10 +21,22 @@ export const studyDefinitionEnvelope = z
     model: z.looseObject({}).optional(),
     /** Nodes of the model, as estimated by the template or counted in the uploaded mesh. */
     estimatedNodes: z.number().int().positive().optional(),
+    /** Template parameters the model was built from (the editor keeps them to rebuild the form). */
+    params: z.looseObject({}).optional(),
   })
   .superRefine((d, ctx) => {
     if (d.model === undefined && d.materials.length === 0) {
       ctx.addIssue({ code: 'custom', path: ['materials'], message: 'Assign at least one material' });
+    }
+    // Template parameters are checked here too, not only in the browser's form: a client that
+    // posts directly must not store a negative width or zero increments beside a model.
+    if (d.params !== undefined) {
+      const parsed = templateParamsSchema.safeParse(d.params);
+      if (!parsed.success) {
+        for (const issue of parsed.error.issues) {
+          ctx.addIssue({ code: 'custom', path: ['params', ...issue.path.map((k) => (typeof k === 'symbol' ? String(k) : k))], message: issue.message });
+        }
+      }
     }
   });
 
