@@ -6,3 +6,4 @@ export * from './studies';
 export * from './templates';
 export * from './notifications';
 export * from './tokens';
+export * from './errors';

@@ -6,19 +6,10 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import type { Logger } from 'pino';
+import type { ApiErrorCodeName as ErrorCode } from '@phaseloop/shared/errors';
 
-export const ERROR_CODES = [
-  'bad_request',
-  'validation_failed',
-  'unauthenticated',
-  'forbidden',
-  'not_found',
-  'conflict',
-  'rate_limited',
-  'csrf_failed',
-  'internal',
-] as const;
-export type ErrorCode = (typeof ERROR_CODES)[number];
+export { API_ERROR_CODES as ERROR_CODES } from '@phaseloop/shared/errors';
+export type { ApiErrorCodeName as ErrorCode } from '@phaseloop/shared/errors';
 
 export class HttpError extends Error {
   constructor(

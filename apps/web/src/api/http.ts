@@ -3,17 +3,9 @@
  * token before the first state-changing request, and turns every non-2xx answer into an ApiError.
  */
 
-export const API_ERROR_CODES = [
-  'bad_request',
-  'validation_failed',
-  'unauthenticated',
-  'forbidden',
-  'not_found',
-  'conflict',
-  'rate_limited',
-  'csrf_failed',
-  'internal',
-] as const;
+import { API_ERROR_CODES } from '@phaseloop/shared/errors';
+
+export { API_ERROR_CODES };
 
 /** Contract codes, plus two of our own for answers that never reached or never came from the API. */
 export type ApiErrorCode = (typeof API_ERROR_CODES)[number] | 'network' | 'unexpected_response' | 'gone';
