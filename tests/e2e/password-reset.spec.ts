@@ -22,7 +22,11 @@ test('a user who forgot the password sets a new one from the mailed link', async
 
     await user.goto('/sign-in');
     await user.getByRole('link', { name: 'Forgot your password?' }).click();
+    // The form view is loaded lazily: wait for it, or the fill may land in the sign-in page's
+    // own E-mail field just before the route changes.
+    await expect(user.getByRole('heading', { name: 'Forgot your password?' })).toBeVisible();
     await user.getByLabel('E-mail').fill(email);
+    await expect(user.getByLabel('E-mail')).toHaveValue(email);
     await user.getByRole('button', { name: 'Send link' }).click();
     await expect(user.getByTestId('reset-requested')).toContainText(email);
 
