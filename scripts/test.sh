@@ -83,4 +83,10 @@ if [[ -s "$PHASELOOP_VERIFICATION_LOG" ]]; then
   "$TSX" scripts/render-verification.ts "$PHASELOOP_VERIFICATION_LOG" docs/verification.md || REPORTS+=("check:verification-table=fail")
 fi
 
-"$TSX" scripts/summarise-tests.ts "${REPORTS[@]}"
+# Stop the servers first, so that nothing they print on the way out follows the closing line.
+"$TSX" scripts/summarise-tests.ts "${REPORTS[@]}" >"$OUT/summary.txt"
+status=$?
+cleanup >/dev/null 2>&1
+trap - EXIT
+cat "$OUT/summary.txt"
+exit "$status"
