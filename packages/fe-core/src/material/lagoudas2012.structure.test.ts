@@ -9,13 +9,13 @@
  *    tangent; e.g. Simo & Hughes 1998, Computational Inelasticity, §3.3).
  */
 import { describe, expect, it } from 'vitest';
-import { parseModel, type ModelInput } from '@phaseloop/shared';
-import { buildProblem } from '../assembly/problem';
-import { line, quarterPlateWithHole, rectangle } from '../mesh/structured';
-import { runAnalysis, type AnalysisResult } from '../solve/nonlinear/driver';
+import type { ModelInput } from '@phaseloop/shared';
+import { line, rectangle } from '../mesh/structured';
+import type { AnalysisResult } from '../solve/nonlinear/driver';
 import { createLagoudas2012 } from './lagoudas2012';
 import { runMaterialPoint } from './materialPoint';
 import { assertCheck } from './materialPointTesting';
+import { plateWithHoleLoop, solveRecording } from './structureTesting';
 
 const SUITE = 'SMA: Lagoudas 2012';
 /** Issue 4's example alloy, with T_ref at the test temperature (no initial thermal stress). */
@@ -26,20 +26,6 @@ const ALLOY = {
   H_min: 0.02, H_sat: 0.05, k_t: 0.01, n1: 1, n2: 1, n3: 1, n4: 1,
 };
 
-function solve(input: ModelInput) {
-  const parsed = parseModel(input);
-  if (!parsed.ok) throw new Error(JSON.stringify(parsed.issues));
-  const sequences: number[][] = [];
-  let cutBacks = 0;
-  const result = runAnalysis(buildProblem(parsed.model), {
-    onIteration: (i) => {
-      if (i.iteration === 0) sequences.push([]);
-      sequences[sequences.length - 1].push(i.residualNorm);
-    },
-    onCutBack: () => cutBacks++,
-  });
-  return { result, sequences, cutBacks };
-}
 
 /** Median observed order log(r_{k+1}/r_k)/log(r_k/r_{k−1}) in the asymptotic range. */
 function newtonOrder(sequences: number[][], start = 1e-2): { median: number; samples: number } {
@@ -82,7 +68,7 @@ function expectSucceeded(r: AnalysisResult): void {
 describe('Lagoudas 2012 in a plane-stress strip: structure = material point', () => {
   for (const type of ['q4', 'q8'] as const) {
     it(`${type}: pseudoelastic loop to 6 % at 37 °C`, () => {
-      const { result, cutBacks } = solve(
+      const { result, cutBacks } = solveRecording(
         strip(type, {
           initialTemperature: 37,
           loads: [{ type: 'displacement', name: 'pull', set: 'right', dof: 'ux' }],
@@ -127,7 +113,7 @@ describe('Lagoudas 2012 in a plane-stress strip: structure = material point', ()
         { name: 'heat', temperature: 60, increments: { initial: 0.0125, min: 0.0005, max: 0.0125 } },
       ],
     });
-    const { result, cutBacks, sequences } = solve(input);
+    const { result, cutBacks, sequences } = solveRecording(input);
     expectSucceeded(result);
     expect(cutBacks).toBe(0); // force and temperature control: no cut-back needed
     const temps = result.frames.map((f) => f.temperature[0]);
@@ -152,28 +138,9 @@ describe('Lagoudas 2012 in a plane-stress strip: structure = material point', ()
 });
 
 describe('Lagoudas 2012 in structures: full loops with quadratic Newton convergence', () => {
-  const W = 10;
   for (const type of ['q8', 'q4'] as const) {
     it(`${type} quarter plate with a hole: pseudoelastic load–unload at 37 °C`, () => {
-      const mesh = quarterPlateWithHole({ radius: 2, halfWidth: W, halfHeight: W, nAround: 2, nRadial: 3, ratio: 3 }, { type, section: 's', material: 'niti' });
-      const { result, sequences, cutBacks } = solve({
-        format: 'phaseloop-model/1',
-        ...mesh,
-        sections: { s: { kind: 'continuum', analysis: 'planeStress', thickness: 1 } },
-        materials: { niti: ALLOY },
-        initialTemperature: 37,
-        supports: [
-          { type: 'symmetry', set: 'left', normal: 'x' },
-          { type: 'symmetry', set: 'bottom', normal: 'y' },
-        ],
-        loads: [{ type: 'displacement', name: 'pull', set: 'top', dof: 'uy' }],
-        segments: [
-          { name: 'load', targets: { pull: 0.04 * W }, increments: { initial: 0.025, min: 0.001, max: 0.025 } },
-          { name: 'unload', targets: { pull: 0 }, increments: { initial: 0.025, min: 0.001, max: 0.025 } },
-        ],
-        output: { fields: ['displacement', 'reaction', 'martensiteFraction'], points: [], reactionSums: [{ name: 'base', set: 'bottom' }] },
-        solver: { forceTolerance: 1e-9, displacementTolerance: 1e-9, lineSearch: false },
-      });
+      const { result, sequences, cutBacks } = solveRecording(plateWithHoleLoop(type, ALLOY));
       expectSucceeded(result);
       const peak = result.frames.reduce((a, f) => Math.max(a, ...Array.from(f.pointXi)), 0);
       expect(peak).toBeGreaterThan(0.5);
@@ -191,7 +158,7 @@ describe('Lagoudas 2012 in structures: full loops with quadratic Newton converge
     const mesh = line({ from: [0, 0], to: [span, 0], n: 16 }, { type: 'beam2', section: 'wire', material: 'niti' });
     const mid = mesh.nodes.find((n) => Math.abs(n.x - span / 2) < 1e-9)!.id;
     const d = 0.5;
-    const { result, sequences, cutBacks } = solve({
+    const { result, sequences, cutBacks } = solveRecording({
       format: 'phaseloop-model/1',
       ...mesh,
       nodeSets: { ...mesh.nodeSets, mid: [mid] },

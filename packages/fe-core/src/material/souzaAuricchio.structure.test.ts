@@ -6,38 +6,22 @@
  *  - pseudoelastic loop of a quarter plate with a hole (Q8) with quadratic Newton convergence.
  */
 import { describe, expect, it } from 'vitest';
-import { parseModel, type ModelInput } from '@phaseloop/shared';
-import { buildProblem } from '../assembly/problem';
-import { quarterPlateWithHole, rectangle } from '../mesh/structured';
-import { runAnalysis } from '../solve/nonlinear/driver';
+import { rectangle } from '../mesh/structured';
 import { runMaterialPoint } from './materialPoint';
 import { assertCheck } from './materialPointTesting';
+import { plateWithHoleLoop, solveRecording } from './structureTesting';
 import { createSouzaAuricchio } from './souzaAuricchio';
 
 const SUITE = 'SMA: Souza–Auricchio';
 const NITI = { model: 'souza-auricchio' as const, E: 52000, nu: 0.33, alpha: 0, T_ref: 20, h: 1000, beta: 6.2, T0: -10, R: 60, eps_L: 0.05 };
 
-function solve(input: ModelInput) {
-  const parsed = parseModel(input);
-  if (!parsed.ok) throw new Error(JSON.stringify(parsed.issues));
-  const sequences: number[][] = [];
-  let cutBacks = 0;
-  const result = runAnalysis(buildProblem(parsed.model), {
-    onIteration: (i) => {
-      if (i.iteration === 0) sequences.push([]);
-      sequences[sequences.length - 1].push(i.residualNorm);
-    },
-    onCutBack: () => cutBacks++,
-  });
-  return { result, sequences, cutBacks };
-}
 
 describe('Souza–Auricchio in structures', () => {
   it('q4 strip: load below T0, unload, free recovery on heating = material point', () => {
     const L = 20;
     const H = 4;
     const mesh = rectangle({ width: L, height: H, nx: 4, ny: 2 }, { type: 'q4', section: 's', material: 'niti' });
-    const { result, cutBacks } = solve({
+    const { result, cutBacks } = solveRecording({
       format: 'phaseloop-model/1',
       ...mesh,
       nodeSets: { ...mesh.nodeSets, origin: [1] },
@@ -74,26 +58,7 @@ describe('Souza–Auricchio in structures', () => {
   });
 
   it('q8 quarter plate with a hole: pseudoelastic loop with quadratic Newton convergence', () => {
-    const W = 10;
-    const mesh = quarterPlateWithHole({ radius: 2, halfWidth: W, halfHeight: W, nAround: 2, nRadial: 3, ratio: 3 }, { type: 'q8', section: 's', material: 'niti' });
-    const { result, sequences } = solve({
-      format: 'phaseloop-model/1',
-      ...mesh,
-      sections: { s: { kind: 'continuum', analysis: 'planeStress', thickness: 1 } },
-      materials: { niti: NITI },
-      initialTemperature: 37,
-      supports: [
-        { type: 'symmetry', set: 'left', normal: 'x' },
-        { type: 'symmetry', set: 'bottom', normal: 'y' },
-      ],
-      loads: [{ type: 'displacement', name: 'pull', set: 'top', dof: 'uy' }],
-      segments: [
-        { name: 'load', targets: { pull: 0.04 * W }, increments: { initial: 0.025, min: 0.001, max: 0.025 } },
-        { name: 'unload', targets: { pull: 0 }, increments: { initial: 0.025, min: 0.001, max: 0.025 } },
-      ],
-      output: { fields: ['displacement', 'reaction', 'martensiteFraction'], points: [], reactionSums: [{ name: 'base', set: 'bottom' }] },
-      solver: { forceTolerance: 1e-9, displacementTolerance: 1e-9, lineSearch: false },
-    });
+    const { result, sequences } = solveRecording(plateWithHoleLoop('q8', NITI));
     expect(result.status, result.failure?.message).toBe('succeeded');
     const peak = result.frames.reduce((a, f) => Math.max(a, ...Array.from(f.pointXi)), 0);
     expect(peak).toBeGreaterThan(0.5);
