@@ -10,7 +10,15 @@ ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 cd "$ROOT"
 source scripts/lib.sh
 
-OUT="$ROOT/.phaseloop/test"
+# Developer knobs (CI sets none of them): PHASELOOP_TEST_SUITES picks suites out of
+# "typecheck vitest e2e"; PHASELOOP_VITEST_ARGS and PHASELOOP_E2E_ARGS narrow vitest and Playwright
+# (e.g. one spec file); PHASELOOP_TEST_OUT and PHASELOOP_WEB_DIST move the reports and the web
+# build, so that two runs with different PHASELOOP_TEST_PG_DIR can go side by side.
+OUT="${PHASELOOP_TEST_OUT:-$ROOT/.phaseloop/test}"
+SUITES=" ${PHASELOOP_TEST_SUITES:-typecheck vitest e2e} "
+WEB_DIST="${PHASELOOP_WEB_DIST:-$ROOT/apps/web/dist}"
+export PHASELOOP_WEB_DIST="$WEB_DIST"
+wants() { [[ "$SUITES" == *" $1 "* ]]; }
 rm -rf "$OUT"
 mkdir -p "$OUT"
 TSX="$ROOT/node_modules/.bin/tsx"
@@ -38,6 +46,7 @@ export NODE_ENV=test
 export LOG_LEVEL="${LOG_LEVEL:-warn}"
 
 # ---- type checks ----------------------------------------------------------------------------
+if wants typecheck; then
 log "type checks"
 if npm run -s typecheck >"$OUT/typecheck.log" 2>&1; then
   REPORTS+=("check:typecheck=pass")
@@ -45,16 +54,20 @@ else
   tail -n 40 "$OUT/typecheck.log"
   REPORTS+=("check:typecheck=fail")
 fi
+fi
 
 # ---- vitest ---------------------------------------------------------------------------------
-log "vitest (all projects)"
-VITE_CONFIG_NATIVE_IGNORE_WARNING=true npx vitest run --reporter=default --reporter=json --outputFile.json="$OUT/vitest.json"
-REPORTS+=("vitest:$OUT/vitest.json")
+if wants vitest; then
+  log "vitest (all projects)"
+  # shellcheck disable=SC2086 # the developer's arguments are meant to split
+  VITE_CONFIG_NATIVE_IGNORE_WARNING=true npx vitest run --reporter=default --reporter=json --outputFile.json="$OUT/vitest.json" ${PHASELOOP_VITEST_ARGS:-}
+  REPORTS+=("vitest:$OUT/vitest.json")
+fi
 
 # ---- end to end -----------------------------------------------------------------------------
-if [[ -f tests/e2e/playwright.config.ts ]]; then
+if wants e2e && [[ -f tests/e2e/playwright.config.ts ]]; then
   log "building the web app"
-  if npm run -s build -w apps/web >"$OUT/web-build.log" 2>&1; then
+  if npm run -s build -w apps/web -- --outDir "$WEB_DIST" --emptyOutDir >"$OUT/web-build.log" 2>&1; then
     REPORTS+=("check:web-build=pass")
     E2E_DB=phaseloop_e2e
     psql "$PHASELOOP_TEST_PG_URL" -qc "CREATE DATABASE $E2E_DB" >/dev/null
@@ -70,7 +83,8 @@ if [[ -f tests/e2e/playwright.config.ts ]]; then
     export PLAYWRIGHT_JSON_OUTPUT_NAME="$OUT/playwright.json"
     export PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD=1
     log "playwright (chromium) on port $E2E_PORT"
-    npx playwright test -c tests/e2e/playwright.config.ts
+    # shellcheck disable=SC2086
+    npx playwright test -c tests/e2e/playwright.config.ts ${PHASELOOP_E2E_ARGS:-}
     REPORTS+=("playwright:$OUT/playwright.json")
   else
     tail -n 40 "$OUT/web-build.log"

@@ -73,7 +73,7 @@ export default defineConfig({
       PORT: String(port),
       HOST: '127.0.0.1',
       DATABASE_URL: process.env.DATABASE_URL ?? '',
-      WEB_DIST: path.join(repoRoot, 'apps/web/dist'),
+      WEB_DIST: process.env.PHASELOOP_WEB_DIST ?? path.join(repoRoot, 'apps/web/dist'),
       // Links in mails point at this test server.
       APP_URL: baseURL,
       SESSION_SECRET: process.env.SESSION_SECRET ?? 'phaseloop-e2e-session-secret-not-for-production',
