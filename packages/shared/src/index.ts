@@ -3,6 +3,7 @@ export * from './runs';
 export * from './model';
 export * from './materialPoint';
 export * from './studies';
+export * from './meshes';
 export * from './templates';
 export * from './notifications';
 export * from './tokens';
