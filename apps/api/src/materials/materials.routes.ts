@@ -3,7 +3,7 @@ import { materialParamsSchema } from '@phaseloop/shared';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { description, idParams, name, projectParams, uuid } from '../http/common-schemas';
-import { addVersion, createMaterial, getMaterial, listMaterialSummaries, requireMaterialVersion, reviewVersion, toVersionDto, updateDraft } from './materials.service';
+import { addVersion, createMaterial, getMaterial, listMaterialSummaries, requireMaterialVersion, reviewVersion, updateDraft, versionWithNames } from './materials.service';
 
 const provenance = z.record(z.string(), z.unknown()).default({});
 const notes = z.string().max(10_000).default('');
@@ -11,7 +11,8 @@ const notes = z.string().max(10_000).default('');
 export const materialVersionDto = z.object({
   id: uuid, materialId: uuid, version: z.number().int(), status: z.enum(['draft', 'approved', 'rejected']),
   params: z.record(z.string(), z.unknown()), provenance: z.record(z.string(), z.unknown()), notes: z.string(),
-  createdAt: z.string(), reviewedBy: z.string().nullable(), reviewedAt: z.string().nullable(), reviewReason: z.string(),
+  createdAt: z.string(), createdBy: z.string().nullable(), createdByName: z.string().nullable(),
+  reviewedBy: z.string().nullable(), reviewedByName: z.string().nullable(), reviewedAt: z.string().nullable(), reviewReason: z.string(),
 });
 const materialDto = z.object({ id: uuid, projectId: uuid, name: z.string(), description: z.string(), latest: materialVersionDto.nullable() });
 
@@ -21,7 +22,12 @@ export function registerMaterialRoutes(api: ApiRouter, ctx: AppContext): void {
     .add({
       method: 'get', path: '/projects/:projectId/materials', tag, access: 'user', summary: 'Materials of a project (their latest version)',
       params: projectParams,
-      response: z.object({ items: z.array(z.object({ id: uuid, name: z.string(), version: z.number().int(), status: z.enum(['draft', 'approved', 'rejected']), model: z.string(), isDemo: z.boolean(), updatedAt: z.string() })) }),
+      response: z.object({
+        items: z.array(z.object({
+          id: uuid, name: z.string(), version: z.number().int(), latestVersionId: uuid.nullable(), status: z.enum(['draft', 'approved', 'rejected']),
+          model: z.string(), isDemo: z.boolean(), updatedAt: z.string(), updatedByName: z.string().nullable(),
+        })),
+      }),
       handler: async ({ user, params }) => ({ items: await listMaterialSummaries(user, params.projectId) }),
     })
     .add({
@@ -44,7 +50,7 @@ export function registerMaterialRoutes(api: ApiRouter, ctx: AppContext): void {
     .add({
       method: 'get', path: '/material-versions/:id', tag, access: 'user', summary: 'One material version',
       params: idParams, response: materialVersionDto,
-      handler: async ({ user, params }) => toVersionDto((await requireMaterialVersion(user, params.id)).version),
+      handler: async ({ user, params }) => versionWithNames((await requireMaterialVersion(user, params.id)).version),
     })
     .add({
       method: 'patch', path: '/material-versions/:id', tag, access: 'user', description: 'Project analysts and admins.', summary: 'Edit a draft version',

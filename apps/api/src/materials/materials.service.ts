@@ -5,6 +5,7 @@ import type { SessionUser } from '../auth/session-user';
 import { requireProject, requireProjectOf } from '../projects/projects.service';
 import type { Permission } from '../auth/permissions';
 import { audit } from '../audit/audit.service';
+import { User } from '../users/users.model';
 import { Material, MaterialVersion, type MaterialVersionStatus } from './materials.model';
 
 export interface MaterialVersionDto {
@@ -16,7 +17,11 @@ export interface MaterialVersionDto {
   provenance: Record<string, unknown>;
   notes: string;
   createdAt: string;
+  createdBy: string | null;
+  /** Author's display name; null when the author's account is gone. */
+  createdByName: string | null;
   reviewedBy: string | null;
+  reviewedByName: string | null;
   reviewedAt: string | null;
   reviewReason: string;
 }
@@ -29,20 +34,35 @@ export interface MaterialDto {
   latest: MaterialVersionDto | null;
 }
 
-export function toVersionDto(v: MaterialVersion): MaterialVersionDto {
+/** Display names of the given user ids, read in one query (authors and reviewers of a list). */
+export async function userNames(ids: readonly (string | null | undefined)[]): Promise<Map<string, string>> {
+  const wanted = [...new Set(ids.filter((id): id is string => typeof id === 'string'))];
+  if (wanted.length === 0) return new Map();
+  const users = await User.findAll({ where: { id: wanted }, attributes: ['id', 'name'] });
+  return new Map(users.map((u) => [u.id, u.name]));
+}
+
+export function toVersionDto(v: MaterialVersion, names: ReadonlyMap<string, string> = new Map()): MaterialVersionDto {
   return {
     id: v.id, materialId: v.materialId, version: v.version, status: v.status, params: v.params, provenance: v.provenance,
-    notes: v.notes, createdAt: v.createdAt.toISOString(), reviewedBy: v.reviewedBy ?? null,
+    notes: v.notes, createdAt: v.createdAt.toISOString(),
+    createdBy: v.createdBy ?? null, createdByName: (v.createdBy && names.get(v.createdBy)) ?? null,
+    reviewedBy: v.reviewedBy ?? null, reviewedByName: (v.reviewedBy && names.get(v.reviewedBy)) ?? null,
     reviewedAt: v.reviewedAt ? v.reviewedAt.toISOString() : null, reviewReason: v.reviewReason,
   };
+}
+
+/** A version with its author's and reviewer's names filled in. */
+export async function versionWithNames(v: MaterialVersion): Promise<MaterialVersionDto> {
+  return toVersionDto(v, await userNames([v.createdBy, v.reviewedBy]));
 }
 
 async function latestVersion(materialId: string): Promise<MaterialVersion | null> {
   return MaterialVersion.findOne({ where: { materialId }, order: [['version', 'DESC']] });
 }
 
-function toMaterialDto(m: Material, latest: MaterialVersion | null): MaterialDto {
-  return { id: m.id, projectId: m.projectId, name: m.name, description: m.description, latest: latest ? toVersionDto(latest) : null };
+function toMaterialDto(m: Material, latest: MaterialVersion | null, names: ReadonlyMap<string, string> = new Map()): MaterialDto {
+  return { id: m.id, projectId: m.projectId, name: m.name, description: m.description, latest: latest ? toVersionDto(latest, names) : null };
 }
 
 export async function requireMaterial(user: SessionUser, id: string, permission: Permission = 'project:read'): Promise<Material> {
@@ -67,24 +87,40 @@ export async function requireMaterialVersion(
 export interface MaterialSummaryDto {
   id: string;
   name: string;
-  /** Latest version's number, status and model. */
+  /** Latest version's number, id, status and model. */
   version: number;
+  latestVersionId: string | null;
   status: MaterialVersionStatus;
   model: string;
   isDemo: boolean;
   updatedAt: string;
+  /** Who last changed the material: the latest version's reviewer once reviewed, else its author. */
+  updatedByName: string | null;
+}
+
+/** Newest version of each material, in one query instead of one per material. */
+async function latestVersions(materialIds: string[]): Promise<Map<string, MaterialVersion>> {
+  if (materialIds.length === 0) return new Map();
+  const rows = await MaterialVersion.findAll({ where: { materialId: materialIds }, order: [['materialId', 'ASC'], ['version', 'DESC']] });
+  const latest = new Map<string, MaterialVersion>();
+  for (const v of rows) if (!latest.has(v.materialId)) latest.set(v.materialId, v);
+  return latest;
 }
 
 export async function listMaterialSummaries(user: SessionUser, projectId: string): Promise<MaterialSummaryDto[]> {
   await requireProject(user, projectId);
   const materials = await Material.findAll({ where: { projectId }, order: [['name', 'ASC']] });
-  const out: MaterialSummaryDto[] = [];
-  for (const m of materials) {
-    const v = await latestVersion(m.id);
+  const latest = await latestVersions(materials.map((m) => m.id));
+  const names = await userNames([...latest.values()].flatMap((v) => [v.createdBy, v.reviewedBy]));
+  return materials.map((m) => {
+    const v = latest.get(m.id) ?? null;
     const updated = v && v.updatedAt > m.updatedAt ? v.updatedAt : m.updatedAt;
-    out.push({ id: m.id, name: m.name, version: v?.version ?? 0, status: v?.status ?? 'draft', model: v?.params.model ?? '', isDemo: m.isDemo, updatedAt: updated.toISOString() });
-  }
-  return out;
+    const actor = v ? (v.reviewedBy ?? v.createdBy) : m.createdBy;
+    return {
+      id: m.id, name: m.name, version: v?.version ?? 0, latestVersionId: v?.id ?? null, status: v?.status ?? 'draft', model: v?.params.model ?? '',
+      isDemo: m.isDemo, updatedAt: updated.toISOString(), updatedByName: (actor && names.get(actor)) ?? null,
+    };
+  });
 }
 
 export async function listMaterials(user: SessionUser, projectId: string): Promise<MaterialDto[]> {
@@ -119,7 +155,8 @@ export async function createMaterial(
 export async function getMaterial(user: SessionUser, id: string): Promise<MaterialDto & { versions: MaterialVersionDto[] }> {
   const m = await requireMaterial(user, id);
   const versions = await MaterialVersion.findAll({ where: { materialId: id }, order: [['version', 'DESC']] });
-  return { ...toMaterialDto(m, versions[0] ?? null), versions: versions.map(toVersionDto) };
+  const names = await userNames(versions.flatMap((v) => [v.createdBy, v.reviewedBy]));
+  return { ...toMaterialDto(m, versions[0] ?? null, names), versions: versions.map((v) => toVersionDto(v, names)) };
 }
 
 /** New draft version after the latest one; approved versions are never edited in place. */
@@ -138,7 +175,7 @@ export async function addVersion(
     await audit(sequelize, { userId: user.id, projectId: m.projectId, action: 'material.version-add', targetType: 'material-version', targetId: created.id, detail: { version: created.version } }, transaction);
     return created;
   });
-  return toVersionDto(v);
+  return versionWithNames(v);
 }
 
 export async function updateDraft(
@@ -151,7 +188,7 @@ export async function updateDraft(
   if (version.status !== 'draft') throw new HttpError(409, `Version ${version.version} is ${version.status}; save a new version instead`);
   await version.update(patch);
   await audit(sequelize, { userId: user.id, projectId: material.projectId, action: 'material.version-edit', targetType: 'material-version', targetId: version.id });
-  return toVersionDto(version);
+  return versionWithNames(version);
 }
 
 export async function reviewVersion(
@@ -163,12 +200,14 @@ export async function reviewVersion(
 ): Promise<MaterialVersionDto> {
   const { version, material, role } = await requireMaterialVersion(user, versionId, 'material:review');
   if (version.status !== 'draft') throw new HttpError(409, `Version ${version.version} has already been ${version.status}`);
-  if (decision === 'reject' && !reason.trim()) throw new HttpError(422, 'Say why the version is rejected', 'validation_failed');
+  if (decision === 'reject' && !reason.trim()) {
+    throw new HttpError(422, 'Say why the version is rejected', 'validation_failed', [{ path: 'reason', message: 'reason is required when rejecting: say what to change' }]);
+  }
   // Four eyes: the author of a version does not approve it, unless they administer the project.
   if (version.createdBy === user.id && role !== 'admin') {
     throw new HttpError(403, 'A version is reviewed by someone other than its author');
   }
   await version.update({ status: decision === 'approve' ? 'approved' : 'rejected', reviewedBy: user.id, reviewedAt: new Date(), reviewReason: reason });
   await audit(sequelize, { userId: user.id, projectId: material.projectId, action: `material.${decision}`, targetType: 'material-version', targetId: version.id, detail: { reason } });
-  return toVersionDto(version);
+  return versionWithNames(version);
 }
