@@ -3,7 +3,7 @@
  * node-major arrays of component arrays (in the order of `nodes`); NaN (no contributing element)
  * is written as null. Integration-point fields are included only when the model asks for them.
  */
-import type { FieldName } from '@phaseloop/shared';
+import type { FieldName, SectionSpec } from '@phaseloop/shared';
 import type { Problem } from '../assembly/problem';
 import type { AnalysisResult } from '../solve/nonlinear/driver';
 import { nodalField, pointField } from './fields';
@@ -22,6 +22,24 @@ function rows(values: ArrayLike<number>, width: number): (number | null)[][] {
   return out;
 }
 
+/** One frame of RESULT.json. */
+export interface ResultFrameEntry {
+  index: number;
+  segment: number;
+  segmentName: string;
+  increment: number;
+  time: number;
+  iterations: number;
+  history: Record<string, number>;
+  /** Field name → node-major rows of components; null where no element contributes. */
+  nodal: Record<string, (number | null)[][]>;
+  /** Only with `integrationPoints`: field name → rows per material point. */
+  points?: Record<string, (number | null)[][]>;
+}
+
+/** An element as RESULT.json lists it; `section` names an entry of the document's `sections`. */
+export interface ResultElementEntry { id: number; type: string; nodes: number[]; material: string; section: string }
+
 export interface ResultDocument {
   format: string;
   title: string;
@@ -32,26 +50,31 @@ export interface ResultDocument {
   stats: AnalysisResult['stats'] & { wallSeconds: number };
   nodes: number[];
   coordinates: number[][];
-  elements: { id: number; type: string; nodes: number[]; material: string }[];
+  elements: ResultElementEntry[];
+  /**
+   * The model's sections by name (added in phaseloop-result/1 as an optional key: older documents
+   * lack it). The viewer draws bars and beams as solids of their cross-section from it.
+   */
+  sections?: Record<string, SectionSpec>;
   fields: Record<string, readonly string[]>;
   history: Record<string, number[]>;
   /** Material-point positions (x, y), present when integration-point fields are written. */
   pointCoordinates?: number[][];
-  frames: unknown[];
+  frames: ResultFrameEntry[];
 }
 
 export function buildResultDocument(problem: Problem, result: AnalysisResult, wallSeconds: number): ResultDocument {
   const model = problem.model;
   const fields = model.output.fields as FieldName[];
   const componentNames: Record<string, readonly string[]> = {};
-  const frames = result.frames.map((frame) => {
+  const frames = result.frames.map((frame): ResultFrameEntry => {
     const nodal: Record<string, (number | null)[][]> = {};
     for (const name of fields) {
       const f = nodalField(problem, frame, name);
       componentNames[name] = f.components;
       nodal[name] = rows(f.values, f.components.length);
     }
-    const entry: Record<string, unknown> = {
+    const entry: ResultFrameEntry = {
       index: frame.index,
       segment: frame.segment,
       segmentName: frame.segmentName,
@@ -84,7 +107,8 @@ export function buildResultDocument(problem: Problem, result: AnalysisResult, wa
     stats: { ...result.stats, wallSeconds },
     nodes: Array.from(problem.nodeIds),
     coordinates: rows(problem.coords, 2) as number[][],
-    elements: model.elements.map((e) => ({ id: e.id, type: e.type, nodes: e.nodes, material: e.material })),
+    elements: model.elements.map((e) => ({ id: e.id, type: e.type, nodes: e.nodes, material: e.material, section: e.section })),
+    sections: model.sections,
     fields: componentNames,
     history,
     ...(model.output.integrationPoints ? { pointCoordinates: rows(problem.pointCoords, 2) as number[][] } : {}),
