@@ -22,6 +22,7 @@ import { cancelRequested, claimRun, expireStuckRuns, finishRun, reapStaleRuns, r
 import type { IterationReport, RunSolver, SolveOutcome } from './solver';
 import { createFeCoreSolver } from './fe-solver';
 import { resultStoreFromEnv, type ResultStore } from './result-store';
+import { openRunLog, type AddedLogLine } from './run-log';
 
 export interface WorkerOptions {
   databaseUrl: string;
@@ -133,6 +134,13 @@ export async function startWorker(options: WorkerOptions): Promise<RunningWorker
     };
     let frames = 0;
 
+    // Stored so the run monitor shows past lines too; live events carry the stored seq.
+    const log = await openRunLog(pool, runId, run.attempt, { onWriteError: (err) => logger.warn({ err, runId }, 'run log write failed') });
+    const emitLog = (lines: AddedLogLine[]) => {
+      for (const l of lines) events.log({ runId, level: l.level, message: l.message, at: l.at.toISOString(), attempt: l.attempt, ...(l.seq !== undefined ? { seq: l.seq } : {}) });
+    };
+    if (run.attempt > 1) emitLog(log.add('warn', `Attempt ${run.attempt} of ${maxAttempts}: solving again from the beginning.`));
+
     let outcome: SolveOutcome;
     try {
       outcome = await solver.solve(run.snapshot, {
@@ -153,7 +161,7 @@ export async function startWorker(options: WorkerOptions): Promise<RunningWorker
           });
         },
         onLog(level, message) {
-          events.log({ runId, level, message, at: now() });
+          emitLog(log.add(level, message));
         },
         shouldStop: () => cancelled,
         shouldStopAfterIncrement: () => stopping,
@@ -169,6 +177,8 @@ export async function startWorker(options: WorkerOptions): Promise<RunningWorker
     }
 
     if (outcome.kind === 'stopped' && !cancelled && stopping) {
+      emitLog(log.add('warn', 'The worker was shut down during this attempt; the run goes back to the queue.'));
+      await log.close();
       const jobId = await boss.send(SOLVE_QUEUE, { runId } satisfies SolveJob);
       if (jobId) {
         await results.clear(runId);
@@ -181,6 +191,9 @@ export async function startWorker(options: WorkerOptions): Promise<RunningWorker
     } else {
       const state = outcome.kind === 'succeeded' ? 'succeeded' : outcome.kind === 'stopped' ? 'cancelled' : 'failed';
       const message = outcome.kind === 'stopped' ? 'Cancelled while running; the frames that converged are kept' : outcome.message;
+      // The outcome closes the stored log, so a past log reads to its end without the status line.
+      emitLog(log.add(state === 'failed' ? 'error' : 'info', `Run ${state}: ${message}`));
+      await log.close();
       await finishRun(pool, runId, state, message);
       announce(runId, state, message);
       logger.info({ runId, outcome: outcome.kind, frames }, 'run finished');

@@ -92,13 +92,48 @@ export const runFrameEventSchema = z.object({
 });
 export type RunFrameEvent = z.infer<typeof runFrameEventSchema>;
 
+export const RUN_LOG_LEVELS = ['info', 'warn', 'error'] as const;
+export type RunLogLevel = (typeof RUN_LOG_LEVELS)[number];
+
 export const runLogEventSchema = z.object({
   runId: z.string().uuid(),
-  level: z.enum(['info', 'warn', 'error']),
+  level: z.enum(RUN_LOG_LEVELS),
+  message: z.string(),
+  at: z.string(),
+  /**
+   * Place of the line in the run's stored log (the same `seq` as GET /runs/:id/logs), so a page
+   * that loaded past lines can skip live ones it already has. Absent on lines that were shown
+   * live but not stored (past the per-attempt cap).
+   */
+  seq: z.number().int().nonnegative().optional(),
+  /** 1 for the first attempt; higher after the run was restarted. */
+  attempt: z.number().int().positive().optional(),
+});
+export type RunLogEvent = z.infer<typeof runLogEventSchema>;
+
+/**
+ * Log lines stored per attempt of a run. A run that cuts back thousands of times would otherwise
+ * fill the table with near-identical lines; the first lines (model size, first cut-backs) are the
+ * ones that explain a run, so the worker keeps those and writes one last line saying so.
+ */
+export const RUN_LOG_MAX_LINES_PER_ATTEMPT = 1000;
+
+/** One stored line of a run's log, as GET /api/runs/:id/logs answers it. */
+export const runLogLineSchema = z.object({
+  seq: z.number().int().nonnegative(),
+  attempt: z.number().int().positive(),
+  level: z.enum(RUN_LOG_LEVELS),
   message: z.string(),
   at: z.string(),
 });
-export type RunLogEvent = z.infer<typeof runLogEventSchema>;
+export type RunLogLine = z.infer<typeof runLogLineSchema>;
+
+/** Paging of the stored log: lines after `afterSeq` (−1 = from the start), at most `limit`. */
+export const runLogQuerySchema = z.object({
+  afterSeq: z.coerce.number({ error: 'afterSeq must be a whole number (−1 for the first page)' }).int({ error: 'afterSeq must be a whole number' }).min(-1, { error: 'afterSeq must be −1 or more' }).default(-1),
+  limit: z.coerce.number({ error: 'limit must be a whole number' }).int({ error: 'limit must be a whole number' }).min(1, { error: 'limit must be at least 1' }).max(5000, { error: 'limit must be at most 5000' }).default(1000),
+});
+export type RunLogQuery = z.infer<typeof runLogQuerySchema>;
 
 export interface RunServerToClientEvents {
   'run:status': (e: RunStatusEvent) => void;

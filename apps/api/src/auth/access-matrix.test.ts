@@ -183,6 +183,7 @@ const ROUTES: Record<string, RouteRow> = {
   'POST /api/runs/{id}/request-review': { access: perm('run:submit'), prepare: async () => ({ path: `/api/runs/${(await run('succeeded')).id}/request-review` }) },
   'POST /api/runs/{id}/review': { access: perm('run:review'), prepare: async () => ({ path: `/api/runs/${(await run('succeeded')).id}/review`, body: { decision: 'reject', reason: 'matrix test' } }) },
   'GET /api/runs/{id}/iterations': { access: member, prepare: async () => ({ path: `/api/runs/${(await run('queued')).id}/iterations` }) },
+  'GET /api/runs/{id}/logs': { access: member, prepare: async () => ({ path: `/api/runs/${(await run('queued')).id}/logs` }) },
   'GET /api/runs/{id}/frames': { access: member, prepare: async () => ({ path: `/api/runs/${(await run('queued')).id}/frames` }) },
   'GET /api/runs/{id}/files': { access: member, prepare: async () => ({ path: `/api/runs/${(await run('queued')).id}/files` }) },
   'GET /api/runs/{id}/files/{name}': {

@@ -8,11 +8,12 @@ import { initialSchema } from './migrations/0001-initial';
 import { runsQueueSchema } from './migrations/0002-runs-queue';
 import { runNotifiedSchema } from './migrations/0003-run-notified';
 import { meshesSchema } from './migrations/0004-meshes';
+import { runLogLinesSchema } from './migrations/0005-run-log-lines';
 
 export type Sql = (text: string, values?: unknown[]) => Promise<pg.QueryResult>;
 export type Migration = RunnableMigration<Sql>;
 
-export const MIGRATIONS: Migration[] = [initialSchema, runsQueueSchema, runNotifiedSchema, meshesSchema];
+export const MIGRATIONS: Migration[] = [initialSchema, runsQueueSchema, runNotifiedSchema, meshesSchema, runLogLinesSchema];
 
 /** Arbitrary constant shared by every Phaseloop process that migrates. */
 const MIGRATION_LOCK = 7_384_114;

@@ -8,6 +8,7 @@ import { QueryTypes, type Sequelize } from 'sequelize';
 import { pipeline } from 'node:stream/promises';
 import { HttpError, notFound } from '../http/errors';
 import type { AppContext } from '../context';
+import type { RunLogLine } from '@phaseloop/shared';
 import { objectStoreFromEnv } from './object-store';
 
 export interface IterationRow {
@@ -21,6 +22,15 @@ export async function listIterations(sequelize: Sequelize, runId: string, afterS
        FROM run_iterations WHERE run_id = :runId AND seq > :afterSeq ORDER BY seq LIMIT :limit`,
     { replacements: { runId, afterSeq, limit }, type: QueryTypes.SELECT },
   );
+}
+
+export async function listLogLines(sequelize: Sequelize, runId: string, afterSeq: number, limit: number): Promise<RunLogLine[]> {
+  const rows = await sequelize.query<Omit<RunLogLine, 'at'> & { at: Date }>(
+    `SELECT seq, attempt, level, message, created_at AS "at"
+       FROM run_log_lines WHERE run_id = :runId AND seq > :afterSeq ORDER BY seq LIMIT :limit`,
+    { replacements: { runId, afterSeq, limit }, type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => ({ ...r, at: new Date(r.at).toISOString() }));
 }
 
 export interface FrameRow { frame: number; segment: number; increment: number; time: number; history: Record<string, number> }

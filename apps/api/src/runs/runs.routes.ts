@@ -1,13 +1,13 @@
 import { z } from 'zod';
 import { QueryTypes } from 'sequelize';
-import { RUN_STATES, type RunState } from '@phaseloop/shared';
+import { RUN_STATES, runLogLineSchema, runLogQuerySchema, type RunState } from '@phaseloop/shared';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { idParams, projectParams, uuid } from '../http/common-schemas';
 import { requireProject, visibleProjectIds } from '../projects/projects.service';
 import { Run } from './runs.model';
 import { cancelRun, deleteRun, listStudyRuns, requestReview, requireRun, rerun, reviewRun, setRunPriority, submitRun, toRunDto } from './runs.service';
-import { listArtifacts, listFrames, listIterations, streamArtifact } from './results.service';
+import { listArtifacts, listFrames, listIterations, listLogLines, streamArtifact } from './results.service';
 
 export const runDto = z.object({
   id: uuid, projectId: uuid, studyId: uuid, sweepId: uuid.nullable(), number: z.number().int(), state: z.enum(RUN_STATES),
@@ -94,6 +94,15 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
       handler: async ({ user, params, query }) => {
         await requireRun(user, params.id);
         return listIterations(ctx.sequelize, params.id, query.afterSeq, query.limit);
+      },
+    })
+    .add({
+      method: 'get', path: '/runs/:id/logs', tag, access: 'user', description: 'Project members (viewers too).',
+      summary: 'Stored log lines of a run, oldest first (page with afterSeq; each attempt keeps its first lines)',
+      params: idParams, query: runLogQuerySchema, response: z.array(runLogLineSchema),
+      handler: async ({ user, params, query }) => {
+        await requireRun(user, params.id);
+        return listLogLines(ctx.sequelize, params.id, query.afterSeq, query.limit);
       },
     })
     .add({
