@@ -124,6 +124,7 @@ function solveInThread(thread: Worker, model: unknown, hooks: SolveHooks, pollMs
               { name: 'result.json', contentType: 'application/json', bytes: message.files.resultJson },
               { name: 'frames.pvd', contentType: 'application/xml', bytes: message.files.pvd },
               { name: 'history.csv', contentType: 'text/csv', bytes: message.files.csv },
+              ...(message.files.split ?? []),
             ]
             : [];
           if (message.status === 'succeeded') finish({ kind: 'succeeded', message: message.message, files });

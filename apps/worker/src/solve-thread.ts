@@ -11,6 +11,7 @@ import {
 } from '@phaseloop/fe-core';
 import type { ThreadInput, ThreadMessage } from './thread-protocol';
 import { STOP_AFTER_INCREMENT, STOP_NOW } from './thread-protocol';
+import { splitResultFiles } from './result-files';
 
 function maxOf(values: Float64Array): number {
   let m = 0;
@@ -74,6 +75,7 @@ function solve(input: ThreadInput): void {
       resultJson: encoder.encode(JSON.stringify(doc)),
       pvd: encoder.encode(pvd),
       csv: encoder.encode(historyCsv(result.frames)),
+      split: splitResultFiles(doc, encoder),
     },
   });
 }

@@ -21,5 +21,9 @@ export type ThreadMessage =
   }
   | {
     type: 'done'; status: 'succeeded' | 'failed' | 'cancelled'; message: string;
-    files?: { resultJson: Uint8Array; pvd: Uint8Array; csv: Uint8Array };
+    files?: {
+      resultJson: Uint8Array; pvd: Uint8Array; csv: Uint8Array;
+      /** RESULT.json split for frame-by-frame loading (result-mesh.json, result-frame-<k>.json). */
+      split?: { name: string; contentType: string; bytes: Uint8Array }[];
+    };
   };
