@@ -18,6 +18,7 @@ import { registerAdminRoutes } from './admin/admin.routes';
 import { registerProjectRoutes } from './projects/projects.routes';
 import { registerMaterialRoutes } from './materials/materials.routes';
 import { registerStudyRoutes } from './studies/studies.routes';
+import { registerMeshRoutes } from './meshes/meshes.routes';
 import { registerRunRoutes } from './runs/runs.routes';
 import { registerCommentRoutes } from './comments/comments.routes';
 import { registerTestDataRoutes } from './testdata/testdata.routes';
@@ -93,6 +94,7 @@ export function createApp(ctx: AppContext): BuiltApp {
   registerMaterialRoutes(api, ctx);
   registerTestDataRoutes(api, ctx);
   registerStudyRoutes(api, ctx);
+  registerMeshRoutes(api, ctx);
   registerRunRoutes(api, ctx);
   registerCommentRoutes(api, ctx);
   registerNotificationRoutes(api, ctx);

@@ -27,6 +27,8 @@ const configSchema = z.object({
   LOG_LEVEL: z.string().default('info'),
   /** Failed sign-ins allowed per address per minute before 429. */
   LOGIN_FAILURES_PER_MINUTE: z.coerce.number().int().positive().default(10),
+  /** Largest Gmsh .msh upload accepted (bytes). */
+  MESH_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
 });
 
 export type Config = z.infer<typeof configSchema>;

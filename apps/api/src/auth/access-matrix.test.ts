@@ -15,6 +15,7 @@ import { Project, ProjectMember } from '../projects/projects.model';
 import { Material, MaterialVersion } from '../materials/materials.model';
 import { Study } from '../studies/studies.model';
 import { Run } from '../runs/runs.model';
+import { Mesh } from '../meshes/meshes.model';
 import { hashPassword } from './password';
 import { materialParamsSchema } from '@phaseloop/shared';
 
@@ -165,6 +166,16 @@ const ROUTES: Record<string, RouteRow> = {
         [project.id],
       )).rows;
       return { path: `/api/test-data/${row!.id}/content` };
+    },
+  },
+  'GET /api/projects/{projectId}/meshes': { access: member, prepare: fixed(() => `${P()}/meshes`) },
+  'POST /api/projects/{projectId}/meshes': { access: perm('study:write'), prepare: async () => ({ path: `${P()}/meshes`, upload: true }) },
+  'GET /api/meshes/{id}': {
+    access: member,
+    prepare: async () => {
+      const mesh = { nodes: [{ id: 1, x: 0, y: 0 }], elements: [], nodeSets: {}, edgeSets: {}, elementSets: {} };
+      const m = await Mesh.create({ projectId: project.id, name: 'm', fileName: 'm.msh', format: '2.2', size: 1, nodeCount: 1, elementCount: 0, summary: { elementTypes: {}, bounds: { minX: 0, maxX: 0, minY: 0, maxY: 0 }, groups: [], warnings: [] }, mesh, content: '', uploadedBy: null });
+      return { path: `/api/meshes/${m.id}` };
     },
   },
   'GET /api/projects/{projectId}/studies': { access: member, prepare: fixed(() => `${P()}/studies`) },

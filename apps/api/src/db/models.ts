@@ -4,6 +4,7 @@ import { initProjectModels } from '../projects/projects.model';
 import { initMaterialModels } from '../materials/materials.model';
 import { initStudyModels } from '../studies/studies.model';
 import { initRunModels } from '../runs/runs.model';
+import { initMeshModels } from '../meshes/meshes.model';
 
 /** Binds every model to this Sequelize instance (one per process). */
 export function initModels(sequelize: Sequelize): void {
@@ -12,4 +13,5 @@ export function initModels(sequelize: Sequelize): void {
   initMaterialModels(sequelize);
   initStudyModels(sequelize);
   initRunModels(sequelize);
+  initMeshModels(sequelize);
 }
