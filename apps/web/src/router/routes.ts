@@ -89,6 +89,14 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Materials', minimumRole: 'viewer', perProject: true },
   },
   {
+    // Before /materials/:id, so "compare" is not read as a material id.
+    path: '/materials/compare',
+    name: 'material-compare',
+    component: () => import('@/views/MaterialCompareView.vue'),
+    props: (route) => ({ a: typeof route.query.a === 'string' ? route.query.a : undefined, b: typeof route.query.b === 'string' ? route.query.b : undefined }),
+    meta: { title: 'Compare materials', minimumRole: 'viewer' },
+  },
+  {
     path: '/materials/:id',
     name: 'material-detail',
     component: () => import('@/views/MaterialDetailView.vue'),
@@ -100,6 +108,12 @@ export const routes: RouteRecordRaw[] = [
     name: 'test-data',
     component: () => import('@/views/TestDataView.vue'),
     meta: { title: 'Test data', minimumRole: 'viewer', perProject: true },
+  },
+  {
+    path: '/account',
+    name: 'account',
+    component: () => import('@/views/AccountView.vue'),
+    meta: { title: 'Account', minimumRole: 'viewer' },
   },
   {
     path: '/admin',

@@ -1,9 +1,15 @@
 /** Messages of the material-point web worker (materialPoint.worker.js). */
 import type { MaterialParams } from '@phaseloop/shared';
 
+/** One parameter set to trace; `key` comes back with its curves (e.g. the version id, or "a"/"b" in a comparison). */
+export interface MaterialPointSet {
+  key: string;
+  params: MaterialParams;
+}
+
 export interface MaterialPointRequest {
   id: number;
-  params: MaterialParams;
+  sets: MaterialPointSet[];
   temperatures: number[];
   /** Peak axial strain (absolute, e.g. 0.06). */
   peakStrain: number;
@@ -17,8 +23,14 @@ export interface MaterialPointCurve {
   points: [number, number, number][];
 }
 
+export interface MaterialPointSetAnswer {
+  key: string;
+  curves: MaterialPointCurve[];
+  /** Why this set could not be traced at all (e.g. the calibration refused its constants). */
+  error?: string;
+}
+
 export interface MaterialPointAnswer {
   id: number;
-  curves: MaterialPointCurve[];
-  error?: string;
+  sets: MaterialPointSetAnswer[];
 }
