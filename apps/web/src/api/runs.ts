@@ -1,3 +1,4 @@
+import type { RunLogLine } from '@phaseloop/shared';
 import { http, seg } from './http';
 import type { Id, ItemList, RunDetail, RunSummary } from './types';
 
@@ -65,4 +66,49 @@ export function resultUrl(id: Id, name: string): string {
 
 export function fileUrl(id: Id, name: string): string {
   return `/api/runs/${seg(id)}/files/${seg(name)}`;
+}
+
+/** One stored line of a run's log (GET /api/runs/:id/logs), ordered by `seq`. */
+export type RunLogRecord = RunLogLine;
+
+/** Largest page the API answers; a shorter page means the stored log has been read to its end. */
+export const RUN_LOG_PAGE = 5000;
+
+export function listRunLogs(id: Id, afterSeq = -1): Promise<RunLogRecord[]> {
+  return http.get<RunLogRecord[]>(`/api/runs/${seg(id)}/logs?afterSeq=${afterSeq}&limit=${RUN_LOG_PAGE}`);
+}
+
+export type RunReviewStatus = 'none' | 'requested' | 'approved' | 'rejected';
+export type RunReviewDecision = 'approve' | 'reject';
+
+/** The review fields every run answer carries (the shared RunDetail type leaves them loose). */
+export interface RunReviewFields {
+  reviewStatus: RunReviewStatus;
+  reviewReason: string;
+}
+
+/** Analysts and admins ask for a review of a run that succeeded. */
+export function requestRunReview(id: Id): Promise<RunDetail & RunReviewFields> {
+  return http.post<RunDetail & RunReviewFields>(`/api/runs/${seg(id)}/request-review`);
+}
+
+/** Reviewers and admins approve or reject; a rejection needs a reason. */
+export function reviewRun(id: Id, decision: RunReviewDecision, reason: string): Promise<RunDetail & RunReviewFields> {
+  return http.post<RunDetail & RunReviewFields>(`/api/runs/${seg(id)}/review`, { decision, reason });
+}
+
+export interface RunComment {
+  id: Id;
+  authorId: Id | null;
+  authorName: string | null;
+  body: string;
+  createdAt: string;
+}
+
+export function listRunComments(id: Id): Promise<RunComment[]> {
+  return http.get<RunComment[]>(`/api/comments?targetType=run&targetId=${encodeURIComponent(id)}`);
+}
+
+export function addRunComment(id: Id, body: string): Promise<RunComment> {
+  return http.post<RunComment>('/api/comments', { targetType: 'run', targetId: id, body });
 }
