@@ -19,6 +19,8 @@ export interface ResultFrame {
   history: Record<string, number>;
   /** Field name → node-major component arrays; null where no element contributes. */
   nodal: Record<string, (number[] | null)[]>;
+  /** Bars and beams: field name → rows per element of `lineElements` (optional key). */
+  lineElements?: Record<string, ((number | null)[] | null)[]>;
 }
 
 export interface ResultDocument {
@@ -33,6 +35,8 @@ export interface ResultDocument {
   /** Section specs by name (optional key; older documents lack it). */
   sections?: Record<string, unknown>;
   fields: Record<string, string[]>;
+  /** Ids of the bar and beam elements that frames carry `lineElements` rows for (optional key). */
+  lineElements?: number[];
   history: Record<string, number[]>;
   frames: ResultFrame[];
 }
@@ -65,6 +69,7 @@ export interface ResultMeta {
   elements: ResultElement[];
   sections?: Record<string, unknown>;
   fields: Record<string, string[]>;
+  lineElements?: number[];
   history: Record<string, number[]>;
   frames: FrameMeta[];
 }
@@ -73,6 +78,8 @@ export interface ResultMeta {
 export interface FrameValues {
   index: number;
   nodal: Record<string, Float32Array>;
+  /** Bars and beams, per element of `ResultMeta.lineElements`, in the same flat layout. */
+  lines?: Record<string, Float32Array>;
 }
 
 export const RESULT_MESH_FILE = 'result-mesh.json';
@@ -92,7 +99,7 @@ export function isResultMesh(value: unknown): value is ResultMeta {
 
 /** The document's frames without their nodal values (the document itself keeps them). */
 export function metaOfDocument(doc: ResultDocument): ResultMeta {
-  return { ...doc, frames: doc.frames.map(({ nodal: _nodal, ...meta }) => meta) };
+  return { ...doc, frames: doc.frames.map(({ nodal: _nodal, lineElements: _lines, ...meta }) => meta) };
 }
 
 function widthOf(fields: Record<string, string[]>, name: string, fallback: number): number {
@@ -115,7 +122,15 @@ export function frameValuesOfDocument(doc: ResultDocument, position: number): Fr
     }
     nodal[name] = out;
   }
-  return { index: frame.index, nodal };
+  if (!frame.lineElements) return { index: frame.index, nodal };
+  const lines: Record<string, Float32Array> = {};
+  for (const [name, rows] of Object.entries(frame.lineElements)) {
+    const width = widthOf(doc.fields, name, 1);
+    const out = new Float32Array(rows.length * width).fill(Number.NaN);
+    rows.forEach((r, i) => { for (let c = 0; c < width; c++) { const v = r?.[c]; if (typeof v === 'number') out[i * width + c] = v; } });
+    lines[name] = out;
+  }
+  return { index: frame.index, nodal, lines };
 }
 
 /**
@@ -127,16 +142,23 @@ export function parseFrameFile(value: unknown, meta: ResultMeta, expectedIndex: 
   if (!v || typeof v !== 'object' || v.format !== RESULT_FRAME_FORMAT) throw new Error(`frame ${expectedIndex} is not a Phaseloop result frame (${RESULT_FRAME_FORMAT})`);
   if (v.index !== expectedIndex) throw new Error(`frame file holds frame ${String(v.index)}, expected ${expectedIndex}`);
   if (!v.nodal || typeof v.nodal !== 'object') throw new Error(`frame ${expectedIndex} has no nodal values`);
-  const n = meta.nodes.length;
-  const nodal: Record<string, Float32Array> = {};
-  for (const [name, flat] of Object.entries(v.nodal as Record<string, unknown>)) {
-    const width = widthOf(meta.fields, name, 1);
-    if (!Array.isArray(flat) || flat.length !== n * width) throw new Error(`frame ${expectedIndex}: field ${name} has ${Array.isArray(flat) ? flat.length : 0} values, expected ${n * width}`);
-    const out = new Float32Array(flat.length);
-    for (let k = 0; k < flat.length; k++) { const x: unknown = flat[k]; out[k] = typeof x === 'number' ? x : Number.NaN; }
-    nodal[name] = out;
+  const nodal = flatArrays(v.nodal as Record<string, unknown>, meta.nodes.length, meta.fields, `frame ${expectedIndex}`);
+  const rawLines = (v as { lineElements?: unknown }).lineElements;
+  if (!rawLines || typeof rawLines !== 'object') return { index: expectedIndex, nodal };
+  const lines = flatArrays(rawLines as Record<string, unknown>, meta.lineElements?.length ?? 0, meta.fields, `frame ${expectedIndex} (bars and beams)`);
+  return { index: expectedIndex, nodal, lines };
+}
+
+function flatArrays(raw: Record<string, unknown>, rows: number, fields: Record<string, string[]>, where: string): Record<string, Float32Array> {
+  const out: Record<string, Float32Array> = {};
+  for (const [name, flat] of Object.entries(raw)) {
+    const width = widthOf(fields, name, 1);
+    if (!Array.isArray(flat) || flat.length !== rows * width) throw new Error(`${where}: field ${name} has ${Array.isArray(flat) ? flat.length : 0} values, expected ${rows * width}`);
+    const values = new Float32Array(flat.length);
+    for (let k = 0; k < flat.length; k++) { const x: unknown = flat[k]; values[k] = typeof x === 'number' ? x : Number.NaN; }
+    out[name] = values;
   }
-  return { index: expectedIndex, nodal };
+  return out;
 }
 
 /** A scalar per node: one component of a field, or the magnitude of the displacement. */
@@ -205,6 +227,23 @@ export function nodalValues(frame: FrameValues, q: ScalarQuantity, fields: Recor
     const o = i * width;
     out[i] = q.component === -1 ? Math.hypot(flat[o] ?? Number.NaN, flat[o + 1] ?? Number.NaN) : (flat[o + q.component] ?? Number.NaN);
   }
+  return out;
+}
+
+/**
+ * Values of a quantity per bar or beam element (its governing point), placed at the element's
+ * position in `elementPosition` order; NaN where the frame has none (nodal fields, old results).
+ */
+export function lineValues(frame: FrameValues, q: ScalarQuantity, meta: Pick<ResultMeta, 'fields' | 'lineElements'>, elementPosition: ReadonlyMap<number, number>, out: Float32Array): Float32Array {
+  out.fill(Number.NaN);
+  const flat = frame.lines?.[q.field];
+  const ids = meta.lineElements;
+  if (!flat || !ids || q.component < 0) return out;
+  const width = widthOf(meta.fields, q.field, 1);
+  ids.forEach((id, k) => {
+    const e = elementPosition.get(id);
+    if (e !== undefined && e < out.length) out[e] = flat[k * width + q.component] ?? Number.NaN;
+  });
   return out;
 }
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { openResultSource, type JsonAnswer } from './resultSource';
-import { nodalValues, rangeFromMeta, scalarQuantities, type ResultDocument } from './resultFile';
+import { lineValues, nodalValues, rangeFromMeta, scalarQuantities, type ResultDocument } from './resultFile';
 
 /** Two nodes, one bar, two frames; node 1 has no von Mises value (null). */
 const doc: ResultDocument = {
@@ -9,10 +9,11 @@ const doc: ResultDocument = {
   elements: [{ id: 1, type: 'bar2', nodes: [1, 2], section: 'wire' }],
   sections: { wire: { kind: 'bar', area: 1 } },
   fields: { displacement: ['ux', 'uy', 'rz'], vonMises: ['value'] },
+  lineElements: [1],
   history: { time: [0, 1] },
   frames: [
     { index: 0, segment: 0, segmentName: 'pull', increment: 0, time: 0, history: { time: 0 }, nodal: { displacement: [[0, 0, 0], [0, 0, 0]], vonMises: [[0], null] } },
-    { index: 1, segment: 0, segmentName: 'pull', increment: 1, time: 1, history: { time: 1 }, nodal: { displacement: [[0, 0, 0], [3, 4, 0]], vonMises: [[120], null] } },
+    { index: 1, segment: 0, segmentName: 'pull', increment: 1, time: 1, history: { time: 1 }, nodal: { displacement: [[0, 0, 0], [3, 4, 0]], vonMises: [[120], null] }, lineElements: { vonMises: [[150]] } },
   ],
 };
 
@@ -20,15 +21,15 @@ const doc: ResultDocument = {
 const files: Record<string, unknown> = {
   'result-mesh.json': {
     format: 'phaseloop-result-mesh/1', resultFormat: 'phaseloop-result/1', title: 't', status: 'succeeded', message: '',
-    nodes: doc.nodes, coordinates: doc.coordinates, elements: doc.elements, sections: doc.sections, fields: doc.fields, history: doc.history,
-    frames: doc.frames.map(({ nodal: _n, ...f }) => ({
+    nodes: doc.nodes, coordinates: doc.coordinates, elements: doc.elements, sections: doc.sections, fields: doc.fields, lineElements: [1], history: doc.history,
+    frames: doc.frames.map(({ nodal: _n, lineElements: _l, ...f }) => ({
       ...f, file: `result-frame-${f.index}.json`,
       ranges: { displacement: f.index ? [[0, 3], [0, 4], [0, 0]] : [[0, 0], [0, 0], [0, 0]], vonMises: [[f.index ? 120 : 0, f.index ? 120 : 0]] },
       displacementMagnitude: f.index ? [0, 5] : [0, 0],
     })),
   },
   'result-frame-0.json': { format: 'phaseloop-result-frame/1', index: 0, time: 0, nodeCount: 2, nodal: { displacement: [0, 0, 0, 0, 0, 0], vonMises: [0, null] } },
-  'result-frame-1.json': { format: 'phaseloop-result-frame/1', index: 1, time: 1, nodeCount: 2, nodal: { displacement: [0, 0, 0, 3, 4, 0], vonMises: [120, null] } },
+  'result-frame-1.json': { format: 'phaseloop-result-frame/1', index: 1, time: 1, nodeCount: 2, nodal: { displacement: [0, 0, 0, 3, 4, 0], vonMises: [120, null] }, lineElements: { vonMises: [150] } },
 };
 
 function server(stored: Record<string, unknown>, whole: unknown) {
@@ -55,6 +56,7 @@ describe('result source', () => {
     const out = new Float32Array(2);
     expect(Array.from(nodalValues(f1, vm, source.meta.fields, out))).toEqual([120, Number.NaN]);
     expect(Array.from(nodalValues(f1, mag, source.meta.fields, out))).toEqual([0, 5]);
+    expect(Array.from(lineValues(f1, vm, source.meta, new Map([[1, 0]]), new Float32Array(1)))).toEqual([150]);
     // A second request for the same frame comes from the cache.
     await source.frame(1);
     expect(s.requests.length).toBe(2);
@@ -72,6 +74,10 @@ describe('result source', () => {
     const f1 = await source.frame(1);
     expect(Array.from(nodalValues(f1, vm, source.meta.fields, new Float32Array(2)))).toEqual([120, Number.NaN]);
     expect(source.meta.frames[1]).not.toHaveProperty('nodal');
+    // The bar's own value (its governing point) sits at the element's position in the mesh.
+    const positions = new Map([[1, 0]]);
+    expect(Array.from(lineValues(f1, vm, source.meta, positions, new Float32Array(1)))).toEqual([150]);
+    expect(Array.from(lineValues(await source.frame(0), vm, source.meta, positions, new Float32Array(1)))).toEqual([Number.NaN]);
     // Without stored ranges the caller has to scan the frames.
     expect(rangeFromMeta(source.meta, vm)).toBeNull();
   });

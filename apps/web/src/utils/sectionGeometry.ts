@@ -152,8 +152,8 @@ export function sectionTemplate(section: LineSection, segments = 16): SectionTem
   return t.build();
 }
 
-/** One line element to draw as a solid: its two node indices and its section. */
-export interface LineSolid { a: number; b: number; section: LineSection }
+/** One line element to draw as a solid: its two node indices, its section and its position in the mesh. */
+export interface LineSolid { a: number; b: number; section: LineSection; element?: number }
 
 /** All prisms of a model merged into one indexed buffer. */
 export interface Extrusion {
@@ -168,6 +168,8 @@ export interface Extrusion {
   localNormals: Float32Array;
   /** Node indices of each solid's ends (2 per solid). */
   ends: Uint32Array;
+  /** Mesh element each solid draws. */
+  solidElement: Uint32Array;
   /** Per solid scratch: axis tangent (tx, ty), written by `placeExtrusion`. */
   axes: Float32Array;
 }
@@ -187,7 +189,7 @@ export function buildExtrusion(solids: readonly LineSolid[], segments = 16): Ext
     solids: solids.length, vertexCount,
     indices: new Uint32Array(indexCount), vertexNode: new Uint32Array(vertexCount), vertexSolid: new Uint32Array(vertexCount),
     offsets: new Float32Array(2 * vertexCount), localNormals: new Float32Array(3 * vertexCount),
-    ends: new Uint32Array(2 * solids.length), axes: new Float32Array(2 * solids.length),
+    ends: new Uint32Array(2 * solids.length), solidElement: new Uint32Array(solids.length), axes: new Float32Array(2 * solids.length),
   };
   let v = 0;
   let i = 0;
@@ -195,6 +197,7 @@ export function buildExtrusion(solids: readonly LineSolid[], segments = 16): Ext
     const tpl = templateOf(s.section);
     ex.ends[2 * k] = s.a;
     ex.ends[2 * k + 1] = s.b;
+    ex.solidElement[k] = s.element ?? k;
     for (let j = 0; j < tpl.indices.length; j++) ex.indices[i + j] = v + tpl.indices[j]!;
     for (let j = 0; j < tpl.vertexCount; j++) {
       ex.vertexSolid[v + j] = k;

@@ -100,11 +100,22 @@ describe('split result files', () => {
     expect(doc.elements.every((e) => e.section === 'tube')).toBe(true);
     expect(mesh.sections?.tube).toMatchObject({ kind: 'beam', crossSection: { shape: 'tube', outerDiameter: 2, wallThickness: 0.3 } });
     const last = frames[frames.length - 1];
-    // Beam fibres are not averaged to nodes: von Mises is null at every node, and its range empty.
+    // Beam fibres are not averaged to nodes: von Mises is null at every node; each beam element
+    // carries it at its governing point instead, in the mesh file's lineElements order.
     expect(last.nodal.vonMises.every((v) => v === null)).toBe(true);
-    expect(mesh.frames[frames.length - 1].ranges.vonMises).toEqual([[null, null]]);
-    // Tip deflection of a cantilever, P L³ / (3 E I), with I = π (D⁴ − d⁴) / 64.
+    expect(mesh.lineElements).toEqual([1, 2, 3, 4]);
+    const vm = last.lineElements?.vonMises ?? [];
+    expect(vm).toEqual(doc.frames[frames.length - 1].lineElements?.vonMises.flat());
+    expect(vm.length).toBe(4);
+    // The bending moment P (L − x) falls towards the tip, so each element's largest stress does too,
+    // and none exceeds the root's outer-fibre stress M c / I.
+    for (let k = 1; k < 4; k++) expect(vm[k]!).toBeLessThan(vm[k - 1]!);
     const I = (Math.PI * (2 ** 4 - 1.4 ** 4)) / 64;
+    expect(vm[0]!).toBeLessThanOrEqual((1 * 20 * 1) / I);
+    expect(vm[0]!).toBeGreaterThan(0.5 * (1 * 20 * 1) / I);
+    // The legend range of the frame covers the beam values.
+    expect(mesh.frames[frames.length - 1].ranges.vonMises).toEqual([[Math.min(...(vm as number[])), Math.max(...(vm as number[]))]]);
+    // Tip deflection of a cantilever, P L³ / (3 E I), with I = π (D⁴ − d⁴) / 64.
     const tip = last.nodal.displacement[3 * (doc.nodes.length - 1) + 1];
     expect(tip).toBeCloseTo(-(1 * 20 ** 3) / (3 * 50_000 * I), 3);
   });

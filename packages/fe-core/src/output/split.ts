@@ -22,10 +22,10 @@ export function resultFrameFileName(index: number): string {
 /** Smallest and largest finite value (null, null when there is none). */
 export type ValueRange = [number | null, number | null];
 
-export interface ResultMeshFrame extends Omit<ResultFrameEntry, 'nodal' | 'points'> {
+export interface ResultMeshFrame extends Omit<ResultFrameEntry, 'nodal' | 'points' | 'lineElements'> {
   /** Stored file with this frame's nodal values. */
   file: string;
-  /** Per field, the range of each component over the nodes of this frame. */
+  /** Per field, the range of each component over the nodes (and the bar and beam values) of this frame. */
   ranges: Record<string, ValueRange[]>;
   /** Range of the in-plane displacement magnitude √(ux² + uy²), when displacement is written. */
   displacementMagnitude?: ValueRange;
@@ -51,6 +51,8 @@ export interface ResultFrameFile {
   nodal: Record<string, (number | null)[]>;
   /** Only with `integrationPoints`: the same flat layout per material point. */
   points?: Record<string, (number | null)[]>;
+  /** Bars and beams: the same flat layout per element of the mesh file's `lineElements`. */
+  lineElements?: Record<string, (number | null)[]>;
 }
 
 function flatten(rows: (number | null)[][] | null[], width: number): (number | null)[] {
@@ -103,15 +105,19 @@ export function splitResultDocument(doc: ResultDocument): { mesh: ResultMesh; fr
     for (const [field, rows] of Object.entries(f.nodal)) {
       const width = widthOf(doc, field, rows);
       nodal[field] = flatten(rows, width);
-      ranges[field] = componentRanges(rows, width);
+      ranges[field] = componentRanges([...rows, ...(f.lineElements?.[field] ?? [])], width);
     }
     const file: ResultFrameFile = { format: RESULT_FRAME_FORMAT, index: f.index, time: f.time, nodeCount: doc.nodes.length, nodal };
     if (f.points) {
       file.points = {};
       for (const [field, rows] of Object.entries(f.points)) file.points[field] = flatten(rows, widthOf(doc, field, rows));
     }
+    if (f.lineElements) {
+      file.lineElements = {};
+      for (const [field, rows] of Object.entries(f.lineElements)) file.lineElements[field] = flatten(rows, widthOf(doc, field, rows));
+    }
     frames.push(file);
-    const { nodal: _nodal, points: _points, ...meta } = f;
+    const { nodal: _nodal, points: _points, lineElements: _lines, ...meta } = f;
     const entry: ResultMeshFrame = { ...meta, file: resultFrameFileName(f.index), ranges };
     if (f.nodal.displacement) entry.displacementMagnitude = magnitudeRange(f.nodal.displacement);
     meshFrames.push(entry);
