@@ -5,6 +5,7 @@
  */
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
+import { MAX_MESH_BYTES } from '@phaseloop/shared';
 
 const repoRoot = fileURLToPath(new URL('../../../', import.meta.url));
 const DEV_SECRET = 'phaseloop-development-secret-change-me';
@@ -28,7 +29,7 @@ const configSchema = z.object({
   /** Failed sign-ins allowed per address per minute before 429. */
   LOGIN_FAILURES_PER_MINUTE: z.coerce.number().int().positive().default(10),
   /** Largest Gmsh .msh upload accepted (bytes). */
-  MESH_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
+  MESH_MAX_BYTES: z.coerce.number().int().positive().default(MAX_MESH_BYTES),
 });
 
 export type Config = z.infer<typeof configSchema>;
