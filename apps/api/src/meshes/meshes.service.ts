@@ -22,6 +22,13 @@ export interface MeshUpload {
 
 /** The parsed mesh and the summary shown after the upload, or a 400 naming the line at fault. */
 export function importMesh(fileName: string, text: string): { mesh: MeshPartData; summary: StoredMeshSummary; format: GmshMesh['version'] } {
+  // PostgreSQL text cannot hold NUL, and an ASCII mesh never has one: refuse it here, by line,
+  // rather than fail on insert (the parser would skip it inside a section it does not read).
+  const nul = text.indexOf('\u0000');
+  if (nul >= 0) {
+    const line = text.slice(0, nul).split('\n').length;
+    throw new HttpError(400, `${fileName} could not be read: line ${line}: the file holds binary data (a NUL byte); export the mesh as ASCII`, 'bad_request', [{ path: 'file', line, message: 'binary data' }]);
+  }
   let parsed: GmshMesh;
   try {
     parsed = parseGmsh(text);

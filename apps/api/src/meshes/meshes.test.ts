@@ -80,6 +80,11 @@ describe('mesh upload', () => {
     expect(res.body.error.message).toContain('broken.msh');
     expect(res.body.error.details).toEqual([expect.objectContaining({ path: 'file', line: at + 1 })]);
 
+    // Binary data where the parser does not look (a section it skips) is refused before the insert.
+    const withNul = `${STRIP_22}$Comments\nabc\u0000def\n$EndComments\n`;
+    const nul = await upload(analyst, project.id, withNul, 'nul.msh').expect(400);
+    expect(nul.body.error.message).toContain(`line ${STRIP_22.split('\n').length + 1}:`);
+
     const notMesh = await upload(analyst, project.id, 'x,y\n1,2\n', 'points.csv').expect(400);
     expect(notMesh.body.error.message).toContain('.msh');
     const missing = await analyst.post(`/api/projects/${project.id}/meshes`).field('name', 'nothing').expect(422);
