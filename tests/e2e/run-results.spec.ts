@@ -1,6 +1,7 @@
 /**
  * Issue 6 journey: the demo analyst runs a strut-cell study, watches it on the run monitor, opens
- * the results, switches the contour to martensite fraction, probes a point and downloads a VTU
+ * the results (loaded frame by frame through the split result files, never the whole
+ * result.json), switches the contour to martensite fraction, probes a point and downloads a VTU
  * frame (it must parse as VTK XML). The demo viewer then opens the same results without any
  * submit, edit or cancel control, and the API refuses those actions to the viewer.
  */
@@ -38,9 +39,26 @@ test.describe.serial('run monitor and results', () => {
     await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'run-monitor-finished.png'), fullPage: true });
     studyId = (await (await page.request.get(`/api/runs/${runId}`)).json() as { studyId: string }).studyId;
 
+    // Which result files the page asks for: the mesh file and the frame shown, not result.json.
+    const requested: string[] = [];
+    page.on('request', (r) => { if (r.url().includes(`/api/runs/${runId}/`)) requested.push(new URL(r.url()).pathname); });
     await page.getByTestId('run-open-results').click();
     await expect(page.getByTestId('results-caution')).toContainText('never replace, physical testing');
     await expect(page.getByTestId('results-viewport').locator('canvas')).toBeVisible();
+    await expect(page.getByTestId('results-main')).toHaveAttribute('data-result-source', 'split');
+    const frameFiles = () => requested.filter((p) => /\/files\/result-frame-\d+\.json$/.test(p));
+    expect(requested).toContain(`/api/runs/${runId}/files/result-mesh.json`);
+    expect(requested.some((p) => p.endsWith('/result.json')), 'the whole result.json is not fetched').toBe(false);
+    const { frames } = (await (await page.request.get(`/api/runs/${runId}/files/result-mesh.json`)).json()) as { frames: { index: number; file: string }[] };
+    expect(frames.length).toBeGreaterThan(2);
+    const lastFrame = frames[frames.length - 1]!;
+    expect(frameFiles()).toEqual([`/api/runs/${runId}/files/${lastFrame.file}`]);
+    // One step back on the slider loads that frame's file (and its neighbours ahead of time).
+    await page.getByTestId('results-frame').locator('.el-slider__button-wrapper').focus();
+    await page.keyboard.press('ArrowLeft');
+    await expect.poll(frameFiles).toContain(`/api/runs/${runId}/files/${frames[frames.length - 2]!.file}`);
+    await expect(page.getByTestId('results-frame-label')).toContainText(`Frame ${frames.length - 2} of ${frames.length - 1}`);
+    expect(requested.some((p) => p.endsWith('/result.json'))).toBe(false);
 
     await page.getByTestId('results-field').click();
     await page.getByRole('option', { name: /martensite fraction/ }).click();
