@@ -58,7 +58,7 @@ async function announce(ctx: AppContext, run: FinishedRun): Promise<void> {
     '',
     `Open the run: ${ctx.config.APP_URL}${link}`,
     '',
-    'You receive this because you submitted the run. Turn these e-mails off under Settings → Notifications.',
+    'You receive this because you submitted the run. Turn these e-mails off in Phaseloop under Account → Notifications.',
   ].filter((line, i, all) => line !== '' || all[i - 1] !== '').join('\n');
   await ctx.mailer.send({ to: run.email, subject: `[Phaseloop] ${title}`, text }).catch((err: unknown) => ctx.logger.warn({ err, runId: run.id }, 'run mail not sent'));
 }

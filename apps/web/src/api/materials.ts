@@ -69,3 +69,13 @@ export type ReviewDecision = 'approve' | 'reject';
 export function reviewMaterialVersion(versionId: Id, decision: ReviewDecision, reason = ''): Promise<MaterialVersion> {
   return http.post<MaterialVersion>(`/api/material-versions/${seg(versionId)}/review`, { decision, reason });
 }
+
+export interface NewMaterialInput extends NewDraftInput {
+  name: string;
+  description: string;
+}
+
+/** Creates a material with its version 1 as a draft (analysts and admins). */
+export function createMaterial(projectId: Id, input: NewMaterialInput): Promise<MaterialDetail> {
+  return http.post<MaterialDetail>(`/api/projects/${seg(projectId)}/materials`, input);
+}
