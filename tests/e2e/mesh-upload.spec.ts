@@ -8,7 +8,7 @@ import path from 'node:path';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { expect, test, type Page } from '@playwright/test';
-import { ARTIFACTS, DEMO_PROJECT, signInViaApi, waitForData } from './support';
+import { ARTIFACTS, DEMO_PROJECT, horizontalOverflow, signInViaApi, waitForData } from './support';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 /** 4 × 1 mm strip of 4 × 2 quadrilaterals; groups corner (point), left and right (curves), strip (surface). */
@@ -46,6 +46,7 @@ test.describe('mesh upload', () => {
     const groups = page.getByTestId('mesh-groups');
     for (const g of ['corner', 'left', 'right', 'strip']) await expect(groups).toContainText(g);
     await expect(page.getByTestId('mesh-stats')).toContainText('15 nodes · 8 elements');
+    expect(await horizontalOverflow(page), 'mesh set-up at 1280×800 overflows sideways').toBeLessThanOrEqual(0);
 
     await page.getByTestId('mesh-thickness').locator('input').fill('0.2');
     await pick(page, 'mesh-material-strip', /^Demo superelastic NiTi/);
