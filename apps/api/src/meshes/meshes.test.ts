@@ -140,4 +140,27 @@ describe('mesh upload', () => {
     const last = result.frames[result.frames.length - 1]!;
     expect(last.history['left.Fx']).toBeCloseTo(-E * (0.04 / 4) * 1 * 0.5, 6);
   });
+
+  it('refuses mesh settings sent directly with zero increments or a mesh of another project, naming the field', async () => {
+    const mesh = (await upload(analyst, project.id, STRIP_22, 'strip.msh').expect(201)).body as { id: string };
+    const detail = (await analyst.get(`/api/meshes/${mesh.id}`).expect(200)).body as MeshDetail;
+    const material = (await analyst.post(`/api/projects/${project.id}/materials`).send({ name: 'Elastic demo 2', params: { model: 'linear-elastic', E: 60_000, nu: 0.3 } }).expect(201)).body;
+    const raw = {
+      meshId: mesh.id, analysis: 'planeStress', thickness: 0.5, quadType: 'q4-eas', regionMaterials: { strip: material.id },
+      conditions: [{ group: 'left', kind: 'fixed-x' }, { group: 'corner', kind: 'fixed-y' }, { group: 'right', kind: 'displacement-x', value: 0.04 }],
+      initialTemperature: 20, history: [{ name: 'pull', load: 1, increments: 2 }],
+    };
+    const model = buildMeshModel(detail.mesh, meshStudySettingsSchema.parse(raw), { strip: { materialVersionId: material.latest.id as string } }, 'strip');
+    const zero = await analyst.post(`/api/projects/${project.id}/studies`)
+      .send({ name: 'Zero increments', definition: { mesh: { ...raw, history: [{ name: 'pull', load: 1, increments: 0 }] }, model } });
+    expect(zero.status).toBe(422);
+    expect(zero.body.error.details).toContainEqual({ path: 'definition.mesh.history.0.increments', message: 'increments must be ≥ 1' });
+
+    const other = await t.createProject('Other meshes');
+    const otherAnalyst = (await t.signIn({ project: other, role: 'analyst' })).client;
+    const foreign = (await upload(otherAnalyst, other.id, STRIP_22, 'foreign.msh').expect(201)).body as { id: string };
+    const wrong = await analyst.post(`/api/projects/${project.id}/studies`).send({ name: 'Foreign mesh', definition: { mesh: { ...raw, meshId: foreign.id }, model } });
+    expect(wrong.status).toBe(422);
+    expect(wrong.body.error.details).toContainEqual({ path: 'definition.mesh.meshId', message: `unknown mesh ${foreign.id}` });
+  });
 });

@@ -8,7 +8,8 @@ import { Material, MaterialVersion } from '../materials/materials.model';
 import { Study } from './studies.model';
 import { User } from '../users/users.model';
 import { materialVersionIdsOf, type StudyDefinition } from './study-definition';
-import { resolveMaterialReferences, validateStudyModel, type StudyListQuery } from '@phaseloop/shared';
+import { meshStudySettingsSchema, resolveMaterialReferences, validateStudyModel, type StudyListQuery } from '@phaseloop/shared';
+import { Mesh } from '../meshes/meshes.model';
 
 export interface StudyDto {
   id: string;
@@ -48,6 +49,24 @@ export async function checkMaterialsBelong(projectId: string, definition: StudyD
   return versions.filter((v) => ok.has(v.materialId));
 }
 
+/**
+ * A study on an uploaded mesh keeps the builder's settings in `definition.mesh`. The model beside
+ * them is checked in full anyway, but the settings are what the editor reopens, so a client that
+ * posts directly must not store zero increments there, or a mesh of another project.
+ */
+async function checkMeshSettings(projectId: string, settings: unknown): Promise<void> {
+  if (settings === undefined) return;
+  const parsed = meshStudySettingsSchema.safeParse(settings);
+  if (!parsed.success) {
+    const issues = parsed.error.issues.map((i) => ({ path: ['definition', 'mesh', ...i.path.map(String)].join('.'), message: i.message }));
+    throw new HttpError(422, `The mesh settings are not valid: ${issues.slice(0, 5).map((i) => `${i.path}: ${i.message}`).join('; ')}`, 'validation_failed', issues);
+  }
+  const mesh = await Mesh.findOne({ where: { id: parsed.data.meshId, projectId } });
+  if (!mesh) {
+    throw new HttpError(422, `Mesh ${parsed.data.meshId} is not in this project`, 'validation_failed', [{ path: 'definition.mesh.meshId', message: `unknown mesh ${parsed.data.meshId}` }]);
+  }
+}
+
 /** JSON path of the first place a definition refers to a material version. */
 function referencePath(definition: StudyDefinition, versionId: string): string {
   const index = definition.materials.findIndex((m) => m.materialVersionId === versionId);
@@ -63,6 +82,7 @@ function referencePath(definition: StudyDefinition, versionId: string): string {
  * Problems come back as 422 with one `{ path, message }` per problem, paths from the request root.
  */
 export async function validateDefinition(projectId: string, definition: StudyDefinition): Promise<MaterialVersion[]> {
+  await checkMeshSettings(projectId, (definition as { mesh?: unknown }).mesh);
   const versions = await checkMaterialsBelong(projectId, definition);
   if (definition.model !== undefined) {
     const params = new Map(versions.map((v) => [v.id, v.params]));
