@@ -78,6 +78,8 @@ for (const viewport of VIEWPORTS) {
       test.setTimeout(480_000);
       await signInViaApi(page.request, 'admin');
       const finished: QuickRun = await succeededDemoRun(page.request);
+      // The stent project is the current one (as the switcher leaves it), so the lists show its studies and runs.
+      await page.addInitScript((id) => localStorage.setItem('phaseloop.currentProject', id), finished.projectId);
       await page.goto('/projects');
       await checkScreen(page, viewport, 'projects', 'Projects');
 
