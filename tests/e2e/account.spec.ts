@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { expect, request, test } from '@playwright/test';
-import { DEMO_PROJECT, apiPost, signInViaApi, waitForData } from './support';
+import { ARTIFACTS, DEMO_PROJECT, apiPost, signInViaApi, waitForData } from './support';
 
 const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 
@@ -37,6 +37,7 @@ test('a user creates an API token, sees it once, uses it as a Bearer token and r
   const row = page.getByTestId('tokens-table').locator('tbody tr', { hasText: name });
   await expect(row).toContainText(token.slice(0, 10));
   await expect(row).toContainText('active');
+  await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'account-token-created.png'), fullPage: true });
 
   // Shown once: after a reload the list has the prefix only, never the secret.
   await page.reload();
@@ -87,6 +88,7 @@ test('a finished run appears live under the bell, links to the run and is marked
   const item = page.getByTestId('notification-panel').getByTestId('notification-item').first();
   await expect(item).toContainText(`Run ${run.number} of "${studyName}" succeeded`);
   await expect(item).toContainText('unread');
+  await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'notification-bell.png') });
   await item.getByRole('button').first().click();
   await expect(page).toHaveURL(new RegExp(`/runs/${run.id}$`));
   await expect(bell).toHaveAttribute('aria-label', before.unread === 0 ? 'Notifications, none unread' : `Notifications, ${before.unread} unread`);
