@@ -76,6 +76,9 @@ test.describe.serial('run monitor and results', () => {
       await canvas.click({ position: { x: (box?.width ?? 0) / 2 + dx, y: (box?.height ?? 0) / 2 + dy } });
       await expect(page.getByTestId('results-probe-value')).toContainText('martensite fraction ξ =', { timeout: 5000 });
     }).toPass({ timeout: 60_000 });
+    // The probe's history has one value per frame, read lazily from every frame file.
+    await expect(page.getByTestId('results-probe')).toHaveAttribute('data-history-points', String(frames.length), { timeout: 60_000 });
+    expect(frameFiles().length).toBeGreaterThanOrEqual(frames.length);
     await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'results.png'), fullPage: true });
     // Layouts hold at both desktop sizes.
     expect(await horizontalOverflow(page), 'results at 1280×800 overflow sideways').toBeLessThanOrEqual(0);
