@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { expect, request, test } from '@playwright/test';
-import { ARTIFACTS, DEMO_PROJECT, apiPost, signInViaApi, waitForData } from './support';
+import { ARTIFACTS, DEMO_PROJECT, apiPost, horizontalOverflow, mainNav, signInViaApi, waitForData } from './support';
 
 const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 
@@ -94,4 +94,26 @@ test('a finished run appears live under the bell, links to the run and is marked
   await expect(bell).toHaveAttribute('aria-label', before.unread === 0 ? 'Notifications, none unread' : `Notifications, ${before.unread} unread`);
   const after = (await (await page.request.get('/api/notifications')).json()) as { items: { runId: string | null; read: boolean }[] };
   expect(after.items.find((n) => n.runId === run.id)?.read).toBe(true);
+});
+
+test('the account page and the header with the bell fit at 1280×800 and 1920×1080', async ({ page }) => {
+  await signInViaApi(page.request, 'analyst');
+  for (const size of [{ width: 1280, height: 800 }, { width: 1920, height: 1080 }]) {
+    await page.setViewportSize(size);
+    await page.goto('/account');
+    await expect(page.getByRole('heading', { name: 'Account', level: 1 })).toBeVisible();
+    await waitForData(page);
+    expect(await horizontalOverflow(page), `account at ${size.width}`).toBeLessThanOrEqual(0);
+    // The bell sits between the main navigation and the account menu, touching neither.
+    const boxes = await Promise.all([mainNav(page), page.getByTestId('notification-bell'), page.getByTestId('account-menu')].map((l) => l.boundingBox()));
+    const [nav, bell, account] = boxes.map((b) => b ?? { x: 0, y: 0, width: 0, height: 0 });
+    expect(bell!.width, 'bell drawn').toBeGreaterThan(0);
+    expect(nav!.x + nav!.width, 'navigation ends before the bell').toBeLessThanOrEqual(bell!.x);
+    expect(bell!.x + bell!.width, 'bell ends before the account menu').toBeLessThanOrEqual(account!.x);
+    expect(account!.x + account!.width).toBeLessThanOrEqual(size.width);
+    await page.getByTestId('notification-bell').click();
+    await expect(page.getByTestId('notification-panel')).toBeVisible();
+    expect(await horizontalOverflow(page), `open bell at ${size.width}`).toBeLessThanOrEqual(0);
+    await page.screenshot({ path: path.join(ARTIFACTS, 'screens', `${size.width}x${size.height}`, 'account.png'), fullPage: true });
+  }
 });

@@ -7,7 +7,7 @@
  */
 import path from 'node:path';
 import { expect, test, type APIRequestContext, type Page } from '@playwright/test';
-import { ARTIFACTS, DEMO_PROJECT, apiPost, signInViaApi, waitForData, type DemoUser } from './support';
+import { ARTIFACTS, DEMO_PROJECT, apiPost, horizontalOverflow, signInViaApi, waitForData, type DemoUser } from './support';
 
 /** Invented superelastic constants (demo values, not a real alloy), quick for the preview. */
 const DEMO_PARAMS = { model: 'souza-auricchio', E: 52_000, nu: 0.33, alpha: 0, T_ref: 20, h: 800, beta: 6, T0: -20, R: 50, eps_L: 0.05 };
@@ -200,4 +200,28 @@ test('an analyst creates a new material from the list; version 1 is a draft', as
   await expect(page.getByTestId('material-status')).toHaveAttribute('data-status', 'draft');
   await expect(page.getByTestId('material-versions')).toContainText('v1');
   await expect(paramInput(page, 'E')).toHaveValue('200000');
+});
+
+test('the material list, a material page and a comparison fit at 1280×800 and 1920×1080', async ({ page }) => {
+  await signInViaApi(page.request, 'analyst');
+  const material = await newMaterial(page.request);
+  const v2 = (await apiPost(page.request, `/api/materials/${material.id}/versions`, { params: { ...DEMO_PARAMS, h: 900 }, notes: 'harder (demo)' })) as Version;
+  const projectId = await demoProjectId(page.request);
+  await page.addInitScript(([key, id]) => localStorage.setItem(key, id), ['phaseloop.currentProject', projectId] as const);
+  for (const size of [{ width: 1280, height: 800 }, { width: 1920, height: 1080 }]) {
+    await page.setViewportSize(size);
+    for (const [name, url, heading, curves] of [
+      ['materials', '/materials', 'Materials', ''],
+      ['material-page', `/materials/${material.id}`, 'E2E review alloy', '3 curves'],
+      ['material-compare', `/materials/compare?a=${material.latest.id}&b=${v2.id}`, 'Compare material versions', '6 curves'],
+    ] as const) {
+      await page.goto(url);
+      await expect(page.getByRole('heading', { name: heading, level: 1 })).toBeVisible();
+      await waitForData(page);
+      // Wait for the drawn curves, so the width is checked with the chart in place.
+      if (curves) await expect(page.getByTestId('material-preview-status')).toHaveText(curves, { timeout: 60_000 });
+      expect(await horizontalOverflow(page), `${name} at ${size.width}`).toBeLessThanOrEqual(0);
+      await page.screenshot({ path: path.join(ARTIFACTS, 'screens', `${size.width}x${size.height}`, `${name}.png`), fullPage: true });
+    }
+  }
 });
