@@ -94,9 +94,9 @@ for (const viewport of VIEWPORTS) {
       await mainNav(page).getByRole('link', { name: 'Runs' }).click();
       await checkScreen(page, viewport, 'runs', 'Runs');
       await page.getByTestId('runs-table').locator(`a[href="/runs/${finished.runId}"]`).click();
-      await checkScreen(page, viewport, 'run-monitor', /^Run #\d+$/);
+      await checkScreen(page, viewport, 'run-monitor', /^Run #\d+\b/);
       await page.getByTestId('run-open-results').click();
-      await checkScreen(page, viewport, 'results', /^Results of run #\d+$/);
+      await checkScreen(page, viewport, 'results', /^Results of run #\d+\b/);
 
       await mainNav(page).getByRole('link', { name: 'Materials' }).click();
       await checkScreen(page, viewport, 'materials', 'Materials');

@@ -98,6 +98,12 @@ test.describe.serial('run review', () => {
     }
     await expect(page.getByTestId('run-log-line').filter({ hasText: 'Model: 33 nodes' })).toHaveCount(1);
 
+    // The project's run list says where the review stands too.
+    await page.goto('/runs');
+    await waitForData(page);
+    const row = page.getByTestId('runs-table').locator('tr', { has: page.locator(`a[href="/runs/${runId}"]`) });
+    await expect(row.getByTestId('runs-review')).toHaveText('approved');
+
     const { token } = (await (await page.request.get('/api/auth/csrf')).json()) as { token: string };
     const headers = { 'x-csrf-token': token };
     const decide = await page.request.post(`/api/runs/${runId}/review`, { headers, data: { decision: 'reject', reason: 'viewer tries' } });

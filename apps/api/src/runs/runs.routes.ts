@@ -5,7 +5,7 @@ import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { idParams, projectParams, uuid } from '../http/common-schemas';
 import { requireProject, visibleProjectIds } from '../projects/projects.service';
-import { Run } from './runs.model';
+import { Run, type RunReviewStatus } from './runs.model';
 import { cancelRun, deleteRun, listStudyRuns, requestReview, requireRun, rerun, reviewRun, setRunPriority, submitRun, toRunDto } from './runs.service';
 import { listArtifacts, listFrames, listIterations, listLogLines, streamArtifact } from './results.service';
 
@@ -27,13 +27,14 @@ export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
         items: z.array(z.object({
           id: uuid, studyId: uuid, studyName: z.string(), number: z.number().int(), state: z.enum(RUN_STATES),
           queuedAt: z.string().nullable(), startedAt: z.string().nullable(), finishedAt: z.string().nullable(),
+          reviewStatus: z.enum(['none', 'requested', 'approved', 'rejected']),
         })),
       }),
       handler: async ({ user, params, query }) => {
         await requireProject(user, params.projectId);
-        const rows = await ctx.sequelize.query<{ id: string; studyId: string; studyName: string; number: number; state: RunState; queuedAt: Date | null; startedAt: Date | null; finishedAt: Date | null }>(
+        const rows = await ctx.sequelize.query<{ id: string; studyId: string; studyName: string; number: number; state: RunState; queuedAt: Date | null; startedAt: Date | null; finishedAt: Date | null; reviewStatus: RunReviewStatus }>(
           `SELECT r.id, r.study_id AS "studyId", s.name AS "studyName", r.number, r.state, r.queued_at AS "queuedAt",
-                  r.started_at AS "startedAt", r.finished_at AS "finishedAt"
+                  r.started_at AS "startedAt", r.finished_at AS "finishedAt", r.review_status AS "reviewStatus"
              FROM runs r JOIN studies s ON s.id = r.study_id
             WHERE r.project_id = :projectId ORDER BY r.created_at DESC LIMIT :limit`,
           { replacements: { projectId: params.projectId, limit: query.limit }, type: QueryTypes.SELECT },
