@@ -17,6 +17,9 @@ describe('materialFields', () => {
     expect(byKey.n1).toMatchObject({ unit: '–', required: false });
     expect(byKey['plasticity.sigma_y_A']).toMatchObject({ unit: 'MPa', required: true, group: 'plasticity' });
     expect(materialFields('no-such-model')).toEqual([]);
+    // Superseded keys are not offered for new versions; their replacements are.
+    expect(materialFields('souza-auricchio').map((f) => f.key)).toEqual(expect.arrayContaining(['tc_ratio', 'lode_shape']));
+    expect(materialFields('souza-auricchio').map((f) => f.key)).not.toContain('asymmetry');
   });
 
   it('turns form values back into a parameter set the shared schema accepts, leaving out empty groups', () => {

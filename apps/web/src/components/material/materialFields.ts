@@ -36,6 +36,12 @@ const UNITS: Record<string, string> = {
   k_t: '1/MPa',
 };
 
+/**
+ * Keys the schema still reads from older parameter sets but no one should enter any more
+ * (Souza–Auricchio `asymmetry`, replaced by `tc_ratio` and `lode_shape`; only 0 is accepted).
+ */
+const SUPERSEDED = new Set(['asymmetry']);
+
 export function unitOf(key: string): string {
   return UNITS[key.split('.').pop() ?? key] ?? '–';
 }
@@ -76,7 +82,7 @@ export function materialFields(model: string): MaterialField[] {
   const shape = modelSchema(model)?._zod.def.shape ?? {};
   const fields: MaterialField[] = [];
   for (const [key, node] of Object.entries(shape)) {
-    if (key === 'model') continue;
+    if (key === 'model' || SUPERSEDED.has(key)) continue;
     const { inner, required } = unwrap(node);
     if (inner._zod.def.type === 'number') {
       fields.push({ key, unit: unitOf(key), hint: hintFromSchema(key, node), required, group: '' });
