@@ -68,12 +68,14 @@ test('an analyst saves a draft version from the form, with the API naming a bad 
   await expect(rows.first()).toContainText('v2');
   await expect(rows.first()).toContainText('draft');
   await expect(rows.first()).toContainText('Raised R to match the upper plateau');
+  await expect(rows.first()).toContainText('from v1');
   await expect(page.getByTestId('material-status')).toHaveAttribute('data-status', 'draft');
   await expect(paramInput(page, 'R')).toHaveValue('65');
 
   // The API holds the new draft with the edited value.
-  const detail = (await (await page.request.get(`/api/materials/${material.id}`)).json()) as { versions: (Version & { params: { R: number } })[] };
+  const detail = (await (await page.request.get(`/api/materials/${material.id}`)).json()) as { versions: (Version & { params: { R: number }; provenance: Record<string, unknown> })[] };
   expect(detail.versions.map((v) => [v.version, v.status, v.params.R])).toEqual([[2, 'draft', 65], [1, 'draft', 50]]);
+  expect(detail.versions[0]!.provenance).toMatchObject({ basedOn: { versionId: material.latest.id, version: 1 } });
 });
 
 test('a reviewer approves one draft and rejects another with a reason', async ({ page }) => {
