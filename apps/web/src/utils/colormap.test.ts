@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { sampleInto } from './colormap';
+import { colormapTable, sampleInto } from './colormap';
 
 const hex = (rgb: number[]) => '#' + rgb.map((c) => Math.round(c * 255).toString(16).padStart(2, '0')).join('');
 
@@ -34,5 +34,15 @@ describe('colour maps', () => {
     expect(a).toEqual(b);
     sampleInto('cividis', Number.NaN, a);
     expect(a).toEqual(b);
+  });
+
+  it('the lookup table holds the map at evenly spaced points, ends included', () => {
+    const table = colormapTable('viridis', 5);
+    expect(table.length).toBe(15);
+    for (const [k, t] of [[0, 0], [2, 0.5], [4, 1]] as const) {
+      const rgb = [0, 0, 0];
+      sampleInto('viridis', t, rgb);
+      expect(Array.from(table.subarray(3 * k, 3 * k + 3))).toEqual(rgb.map((c) => Math.fround(c)));
+    }
   });
 });

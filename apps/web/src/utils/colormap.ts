@@ -39,6 +39,19 @@ export function sampleInto(name: ColormapName, t: number, out: Float32Array | nu
   out[offset + 2] = a[2] + (b[2] - a[2]) * f;
 }
 
+/** Levels in a lookup table: as many as the published 8-bit tables, finer than a legend can show. */
+export const TABLE_SIZE = 256;
+
+/**
+ * The map sampled at `size` evenly spaced points (RGB triples), so a contour of a large mesh
+ * colours each node with one table read instead of an interpolation.
+ */
+export function colormapTable(name: ColormapName, size = TABLE_SIZE): Float32Array {
+  const table = new Float32Array(3 * size);
+  for (let k = 0; k < size; k++) sampleInto(name, k / (size - 1), table, 3 * k);
+  return table;
+}
+
 export function cssColor(name: ColormapName, t: number): string {
   const rgb = [0, 0, 0];
   sampleInto(name, t, rgb);
