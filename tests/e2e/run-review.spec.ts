@@ -41,7 +41,7 @@ test.describe.serial('run review', () => {
     await expect(review.getByTestId('run-review-state')).toHaveText('review requested');
     await expect(review.getByTestId('run-request-review')).toHaveCount(0);
 
-    await review.getByTestId('run-comment-input').locator('textarea').fill(analystComment);
+    await review.getByTestId('run-comment-input').fill(analystComment);
     await review.getByTestId('run-comment-add').click();
     await expect(review.getByTestId('run-comments')).toContainText(analystComment);
     await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'run-review-requested.png'), fullPage: true });
@@ -59,7 +59,7 @@ test.describe.serial('run review', () => {
     // A reviewer acts on the review only: no run controls.
     await expect(page.getByTestId('run-rerun')).toHaveCount(0);
 
-    await review.getByTestId('run-comment-input').locator('textarea').fill(reviewerComment);
+    await review.getByTestId('run-comment-input').fill(reviewerComment);
     await review.getByTestId('run-comment-add').click();
     await expect(review.getByTestId('run-comments').locator('li')).toHaveCount(2);
     await expect(review.getByTestId('run-comments').locator('li').last()).toContainText(reviewerComment);
@@ -73,7 +73,7 @@ test.describe.serial('run review', () => {
 
     await review.getByTestId('run-approve').click();
     const approve = page.getByRole('dialog', { name: 'Approve this run?' });
-    await approve.getByTestId('run-review-reason-input').locator('textarea').fill('Inputs and convergence checked (e2e).');
+    await approve.getByTestId('run-review-reason-input').fill('Inputs and convergence checked (e2e).');
     await approve.getByTestId('run-review-confirm').click();
     await expect(review.getByTestId('run-review-state')).toHaveText('approved');
     await expect(review.getByTestId('run-review-reason')).toContainText('Inputs and convergence checked (e2e).');
