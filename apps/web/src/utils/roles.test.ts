@@ -22,6 +22,9 @@ describe('project roles', () => {
   it('lets reviewers decide reviews, and only project admins manage members', () => {
     expect(mayDo('review.decide', 'reviewer')).toBe(true);
     expect(mayDo('review.decide', 'viewer')).toBe(false);
+    // Not a ranking: analysts submit but do not approve (apps/api/src/auth/permissions.ts).
+    expect(mayDo('review.decide', 'analyst')).toBe(false);
+    expect(mayDo('review.decide', 'admin')).toBe(true);
     expect(mayDo('members.manage', 'analyst')).toBe(false);
     expect(mayDo('members.manage', 'admin')).toBe(true);
   });

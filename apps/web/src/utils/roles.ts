@@ -4,7 +4,7 @@
  */
 import type { ProjectRole } from '@/api/types';
 
-/** Higher rank = more rights; each role may do everything the roles below it may. */
+/** Higher rank = wider reading rights (what may be seen, not what may be done). */
 const RANK: Record<ProjectRole, number> = { viewer: 0, reviewer: 1, analyst: 2, admin: 3 };
 
 export type ProjectAction =
@@ -17,17 +17,22 @@ export type ProjectAction =
   | 'study.edit'
   | 'run.submit';
 
-const MINIMUM_ROLE: Record<ProjectAction, ProjectRole> = {
-  'project.read': 'viewer',
-  'review.decide': 'reviewer',
-  'material.edit': 'analyst',
-  'testData.edit': 'analyst',
-  'study.edit': 'analyst',
-  'run.submit': 'analyst',
-  'project.edit': 'admin',
-  'members.manage': 'admin',
+/**
+ * Who may take each action, role by role as the API grants it (apps/api/src/auth/permissions.ts).
+ * Not a ranking: a reviewer may approve but not submit, an analyst may submit but not approve.
+ */
+const ALLOWED: Record<ProjectAction, readonly ProjectRole[]> = {
+  'project.read': ['viewer', 'reviewer', 'analyst', 'admin'],
+  'review.decide': ['reviewer', 'admin'],
+  'material.edit': ['analyst', 'admin'],
+  'testData.edit': ['analyst', 'admin'],
+  'study.edit': ['analyst', 'admin'],
+  'run.submit': ['analyst', 'admin'],
+  'project.edit': ['admin'],
+  'members.manage': ['admin'],
 };
 
+/** Reading rights only: every role reads what the roles below it read. */
 export function roleAtLeast(role: ProjectRole | null | undefined, minimum: ProjectRole): boolean {
   return role != null && RANK[role] >= RANK[minimum];
 }
@@ -38,7 +43,7 @@ export function roleAtLeast(role: ProjectRole | null | undefined, minimum: Proje
  */
 export function mayDo(action: ProjectAction, role: ProjectRole | null | undefined, isSiteAdmin = false): boolean {
   if (isSiteAdmin) return true;
-  return roleAtLeast(role, MINIMUM_ROLE[action]);
+  return role != null && ALLOWED[action].includes(role);
 }
 
 export const ROLE_LABELS: Record<ProjectRole, string> = {
