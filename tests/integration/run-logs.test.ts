@@ -1,8 +1,9 @@
 /**
- * A real run leaves its log behind: the API in this process, one worker process solving the
+ * A real run leaves its log behind: the API in this process, worker processes solving the
  * superelastic strip of examples/ with fe-core. After the run, GET /runs/:id/logs holds the
  * solver's "Model: …" line and the outcome, and the live run:log events carried the same seq as
  * the stored lines (the run monitor relies on that to merge past and live lines without doubles).
+ * A run whose worker is killed keeps the lines of that attempt, and the next attempt counts on.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
@@ -21,7 +22,7 @@ const materialName = Object.keys(strip.materials)[0]!;
 let db: TestDatabase;
 let api: RunningServer;
 let pool: pg.Pool;
-let worker: WorkerProcess | undefined;
+const workers: WorkerProcess[] = [];
 let analyst: Session;
 let viewer: Session;
 let outsider: Session;
@@ -55,7 +56,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  if (worker) await stopProcess(worker.child);
+  for (const w of workers) await stopProcess(w.child);
   await api?.close();
   await pool?.end();
   await db?.drop();
@@ -72,7 +73,7 @@ describe('stored run log of a real run', () => {
     socket.on(RUN_SOCKET_EVENTS.log, (e: RunLogEvent) => { if (e.runId === runId) live.push(e); });
     expect(await watch(socket, runId)).toEqual({ ok: true });
     const done = waitForState(socket, runId, ['succeeded', 'failed', 'cancelled']);
-    worker = await spawnWorker('tests/integration/fixtures/fe-worker.ts', { DATABASE_URL: db.url, WORKER_ID: 'log-w1' });
+    workers.push(await spawnWorker('tests/integration/fixtures/fe-worker.ts', { DATABASE_URL: db.url, WORKER_ID: 'log-w1' }));
     const final = await done;
     // Events and the answer to a request travel separately; let the last events arrive.
     await sleep(200);
@@ -94,4 +95,45 @@ describe('stored run log of a real run', () => {
     expect((rest.body as { seq: number }[]).map((l) => l.seq)).toEqual(lines.slice(1).map((l) => l.seq));
     expect((await outsider.agent.get(`/api/runs/${runId}/logs`)).status).toBe(404);
   });
+
+  it('keeps the lines of an attempt whose worker was killed, and goes on counting in the next one', async () => {
+    workers.push(await spawnWorker('tests/integration/fixtures/fe-worker.ts', { DATABASE_URL: db.url, WORKER_ID: 'log-w2' }));
+    const submitted = await analyst.agent.post(`/api/studies/${studyId}/runs`).set('x-csrf-token', analyst.csrf).expect(201);
+    const runId = submitted.body.id as string;
+    const solving = await until('three frames of the first attempt', async () => {
+      const { rows } = await pool.query<{ worker_id: string; frames: string }>(
+        `SELECT r.worker_id, (SELECT count(*) FROM run_frames f WHERE f.run_id = r.id) AS frames FROM runs r WHERE r.id = $1 AND r.state = 'running'`, [runId],
+      );
+      return rows[0] && Number(rows[0].frames) >= 3 ? rows[0] : null;
+    });
+    const victim = workers.find((w) => w.id === solving.worker_id)!;
+    await stopProcess(victim.child, 'SIGKILL');
+    const final = await until('the restarted run to finish', async () => {
+      const { rows } = await pool.query<{ state: string; attempts: number }>('SELECT state, attempts FROM runs WHERE id = $1', [runId]);
+      return rows[0] && ['succeeded', 'failed', 'cancelled'].includes(rows[0].state) ? rows[0] : null;
+    }, 90_000);
+    expect(final).toEqual({ state: 'succeeded', attempts: 2 });
+
+    const lines = ((await analyst.agent.get(`/api/runs/${runId}/logs`).expect(200)).body as unknown[]).map((l) => runLogLineSchema.parse(l));
+    expect(lines.map((l) => l.seq)).toEqual(lines.map((_, i) => i));
+    const first = lines.filter((l) => l.attempt === 1);
+    const second = lines.filter((l) => l.attempt === 2);
+    // The killed attempt wrote its model line before it died; nothing of it was lost or rewritten.
+    expect(first[0]?.message).toMatch(/^Model: \d+ nodes/);
+    expect(first.some((l) => l.message.startsWith('Run '))).toBe(false);
+    // Cut-back lines, if any, sit between the model line and the outcome.
+    expect(second[0]?.message).toBe('Attempt 2 of 3: solving again from the beginning.');
+    expect(second[1]?.message).toMatch(/^Model: \d+ nodes/);
+    expect(second.at(-1)?.message).toMatch(/^Run succeeded: /);
+  });
 });
+
+async function until<T>(what: string, probe: () => Promise<T | undefined | null | false>, timeoutMs = 60_000): Promise<T> {
+  const end = Date.now() + timeoutMs;
+  for (;;) {
+    const v = await probe();
+    if (v) return v;
+    if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
+    await sleep(50);
+  }
+}
