@@ -1,7 +1,8 @@
-/** In-app notifications (a run finished or failed) and their live push over Socket.IO. */
+/** In-app notifications (a run finished or failed; a run's review asked for or decided) and their live push over Socket.IO. */
 import { z } from 'zod';
 
-export const NOTIFICATION_KINDS = ['run.succeeded', 'run.failed'] as const;
+export const NOTIFICATION_KINDS = ['run.succeeded', 'run.failed', 'review.requested', 'review.approved', 'review.rejected'] as const;
+export type NotificationKind = (typeof NOTIFICATION_KINDS)[number];
 
 export const notificationSchema = z.object({
   id: z.string().uuid(),

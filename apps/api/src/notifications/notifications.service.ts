@@ -5,7 +5,7 @@
  * once (the UPDATE … RETURNING claims it), so any number of instances can run this.
  */
 import type pg from 'pg';
-import type { NotificationDto } from '@phaseloop/shared';
+import type { NotificationDto, NotificationKind } from '@phaseloop/shared';
 import type { AppContext } from '../context';
 
 interface FinishedRun {
@@ -61,6 +61,24 @@ async function announce(ctx: AppContext, run: FinishedRun): Promise<void> {
     'You receive this because you submitted the run. Turn these e-mails off in Phaseloop under Account → Notifications.',
   ].filter((line, i, all) => line !== '' || all[i - 1] !== '').join('\n');
   await ctx.mailer.send({ to: run.email, subject: `[Phaseloop] ${title}`, text }).catch((err: unknown) => ctx.logger.warn({ err, runId: run.id }, 'run mail not sent'));
+}
+
+export interface NewNotification { kind: NotificationKind; title: string; body: string; link: string; runId: string | null }
+
+/**
+ * In-app notifications for several users at once (review requests and decisions), each pushed to
+ * that user's sockets with the new unread count. Review news is in-app only: the e-mail opt-out
+ * speaks of run ends, and reviewers asked for no further mail.
+ */
+export async function notifyUsers(ctx: AppContext, userIds: readonly string[], n: NewNotification): Promise<void> {
+  for (const userId of new Set(userIds)) {
+    const { rows } = await ctx.pool.query<NotificationRow>(
+      `INSERT INTO notifications (user_id, kind, title, body, link, run_id) VALUES ($1, $2, $3, $4, $5, $6)
+       RETURNING id, kind, title, body, link, run_id, read_at, created_at`,
+      [userId, n.kind, n.title, n.body, n.link, n.runId],
+    );
+    ctx.broadcaster.notification?.(userId, { notification: toDto(rows[0]!), unread: await unreadCount(ctx.pool, userId) });
+  }
 }
 
 /** Announces runs that ended since the last call; returns how many. */

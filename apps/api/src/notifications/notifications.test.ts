@@ -57,4 +57,27 @@ describe('run notifications', () => {
     const mailsAfter = await t.ctx.pool.query('SELECT count(*)::int AS n FROM captured_mail WHERE $1 = ANY(to_addresses)', [user.email]);
     expect(mailsAfter.rows[0].n).toBe(mailsBefore.rows[0].n);
   });
+
+  it('tells the project reviewers when a review is asked for, and the submitter how it was decided', async () => {
+    const project = await t.createProject();
+    const analyst = await t.signIn({ project, role: 'analyst' });
+    const reviewer = await t.signIn({ project, role: 'reviewer' });
+    const viewer = await t.signIn({ project, role: 'viewer' });
+    const run = await endedRun(project.id, analyst.user.id, 'succeeded', 'Converged');
+    await announceFinishedRuns(t.ctx);
+
+    await analyst.client.post(`/api/runs/${run.id}/request-review`).expect(200);
+    const asked = (await reviewer.client.get('/api/notifications').expect(200)).body;
+    expect(asked.items[0]).toMatchObject({ kind: 'review.requested', runId: run.id, link: `/runs/${run.id}`, read: false });
+    expect(asked.items[0].title).toContain('Review requested: run 1 of "Wire under load"');
+    // Viewers do not review, and the one who asked is not told about their own request.
+    expect((await viewer.client.get('/api/notifications').expect(200)).body.items).toEqual([]);
+    expect((await analyst.client.get('/api/notifications').expect(200)).body.items.map((n: { kind: string }) => n.kind)).toEqual(['run.succeeded']);
+
+    await reviewer.client.post(`/api/runs/${run.id}/review`).send({ decision: 'reject', reason: 'mesh too coarse at the strut crown' }).expect(200);
+    const decided = (await analyst.client.get('/api/notifications').expect(200)).body;
+    expect(decided.items[0]).toMatchObject({ kind: 'review.rejected', runId: run.id, read: false });
+    expect(decided.items[0].body).toContain('mesh too coarse at the strut crown');
+    expect(pushed.at(-1)).toMatchObject({ userId: analyst.user.id, event: { notification: { kind: 'review.rejected' } } });
+  });
 });

@@ -14,6 +14,7 @@ import { nodeCountOf, studyDefinitionEnvelope } from '../studies/study-definitio
 import { solverCommit } from '../version';
 import { deleteStoredResults } from './results.service';
 import { Run, type RunReviewStatus, type RunSnapshot } from './runs.model';
+import { notifyUsers } from '../notifications/notifications.service';
 
 export interface RunDto {
   id: string;
@@ -200,6 +201,14 @@ export async function requestReview(ctx: AppContext, user: SessionUser, runId: s
   if (run.reviewStatus === 'approved') throw new HttpError(409, 'The run is already approved');
   await run.update({ reviewStatus: 'requested' });
   await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: 'run.review-request', targetType: 'run', targetId: run.id });
+  const { rows } = await ctx.pool.query<{ user_id: string }>(
+    "SELECT user_id FROM project_members WHERE project_id = $1 AND role IN ('reviewer', 'admin') AND user_id <> $2",
+    [run.projectId, user.id],
+  );
+  await notifyUsers(ctx, rows.map((r) => r.user_id), {
+    kind: 'review.requested', title: `Review requested: run ${run.number} of "${run.snapshot.study.name}"`,
+    body: `${user.name} asks for a review of this run.`, link: `/runs/${run.id}`, runId: run.id,
+  });
   return toRunDto(ctx.sequelize, run);
 }
 
@@ -217,6 +226,13 @@ export async function reviewRun(ctx: AppContext, user: SessionUser, runId: strin
   }
   await run.update({ reviewStatus: decision === 'approve' ? 'approved' : 'rejected', reviewedBy: user.id, reviewedAt: new Date(), reviewReason: reason });
   await audit(ctx.sequelize, { userId: user.id, projectId: run.projectId, action: `run.${decision}`, targetType: 'run', targetId: run.id, detail: { reason } });
+  if (run.submittedBy && run.submittedBy !== user.id) {
+    const word = decision === 'approve' ? 'approved' : 'rejected';
+    await notifyUsers(ctx, [run.submittedBy], {
+      kind: `review.${word}`, title: `Run ${run.number} of "${run.snapshot.study.name}" ${word}`,
+      body: reason ? `${user.name}: ${reason}` : `${word} by ${user.name}`, link: `/runs/${run.id}`, runId: run.id,
+    });
+  }
   return toRunDto(ctx.sequelize, run);
 }
 
