@@ -132,7 +132,8 @@ async function main(): Promise<void> {
     'pixels and triangles drawn, and a desktop GPU draws the same buffers many times faster. The update column is CPU',
     'work in the page (typed-array rewrite of positions and colours, no geometry rebuilt, no normals recomputed) and',
     'carries over to real machines. Numbers from a shared machine are noisy (the load above is at the start; other',
-    'engineers\' builds and tests ran beside it), so take them as orders of magnitude.',
+    'engineers\' builds and tests ran beside it): repeated runs here differed by up to 2× in the orbit and on-screen',
+    'columns, so take them as orders of magnitude.',
   ].join('\n'));
   console.log('bench viewer: section "viewer" of bench/results.md rewritten');
 }
