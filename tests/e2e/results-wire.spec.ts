@@ -71,5 +71,13 @@ test('a wire-bending run shows the wire as a solid of its section', async ({ pag
   // A 0.5 mm wire over a 20 mm span fitted to the view is well over a dozen pixels thick; a
   // line drawing of the same beams would be one or two.
   await expect.poll(() => drawnThickness(page), { timeout: 30_000 }).toBeGreaterThanOrEqual(6);
+  // Probing the wire: beam nodes have no nodal stress, so the probe shows the element's own value.
+  const canvas = viewport.locator('canvas');
+  const box = await canvas.boundingBox();
+  await expect(async () => {
+    await canvas.click({ position: { x: (box?.width ?? 0) * 0.4, y: (box?.height ?? 0) / 2 } });
+    await expect(page.getByTestId('results-probe-value')).toContainText(/von Mises stress = -?\d/, { timeout: 3000 });
+  }).toPass({ timeout: 30_000 });
+  await expect(page.getByTestId('results-probe')).toContainText('at its most stressed point');
   await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'results-wire.png'), fullPage: true });
 });

@@ -257,6 +257,17 @@ export function nodeRow(frame: FrameValues, node: number, fields: Record<string,
   return out;
 }
 
+/** Every field of one bar or beam element (its position in `lineElements`) in a frame, as `nodeRow` gives a node's. */
+export function lineRow(frame: FrameValues, line: number, fields: Record<string, string[]>): Record<string, number[]> | undefined {
+  if (!frame.lines) return undefined;
+  const out: Record<string, number[]> = {};
+  for (const [name, flat] of Object.entries(frame.lines)) {
+    const width = widthOf(fields, name, 1);
+    out[name] = Array.from(flat.subarray(line * width, (line + 1) * width));
+  }
+  return out;
+}
+
 /** A quantity's value from a node row (see `nodeRow`). */
 export function rowValue(row: Record<string, number[]> | undefined, q: ScalarQuantity): number {
   const r = row?.[q.field];

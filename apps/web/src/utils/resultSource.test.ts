@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { openResultSource, type JsonAnswer } from './resultSource';
-import { lineValues, nodalValues, rangeFromMeta, scalarQuantities, type ResultDocument } from './resultFile';
+import { lineRow, lineValues, nodalValues, rangeFromMeta, scalarQuantities, type ResultDocument } from './resultFile';
 
 /** Two nodes, one bar, two frames; node 1 has no von Mises value (null). */
 const doc: ResultDocument = {
@@ -57,6 +57,7 @@ describe('result source', () => {
     expect(Array.from(nodalValues(f1, vm, source.meta.fields, out))).toEqual([120, Number.NaN]);
     expect(Array.from(nodalValues(f1, mag, source.meta.fields, out))).toEqual([0, 5]);
     expect(Array.from(lineValues(f1, vm, source.meta, new Map([[1, 0]]), new Float32Array(1)))).toEqual([150]);
+    expect(lineRow(f1, 0, source.meta.fields)).toEqual({ vonMises: [150] });
     // A second request for the same frame comes from the cache.
     await source.frame(1);
     expect(s.requests.length).toBe(2);
