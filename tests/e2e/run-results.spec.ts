@@ -79,6 +79,9 @@ test.describe.serial('run monitor and results', () => {
     // The probe's history has one value per frame, read lazily from every frame file.
     await expect(page.getByTestId('results-probe')).toHaveAttribute('data-history-points', String(frames.length), { timeout: 60_000 });
     expect(frameFiles().length).toBeGreaterThanOrEqual(frames.length);
+    // Stress against strain at the same point: one pair per frame (strain xx and stress xx first).
+    await expect(page.getByTestId('results-probe-pair')).toHaveAttribute('data-pair-points', String(frames.length), { timeout: 30_000 });
+    await expect(page.getByTestId('results-probe')).toContainText('stress xx against strain xx at node');
     await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'results.png'), fullPage: true });
     // Layouts hold at both desktop sizes.
     expect(await horizontalOverflow(page), 'results at 1280×800 overflow sideways').toBeLessThanOrEqual(0);

@@ -276,6 +276,27 @@ export function rowValue(row: Record<string, number[]> | undefined, q: ScalarQua
 }
 
 /**
+ * One quantity against another at a point, frame by frame (stress against strain, ξ against
+ * temperature …): pairs where either value is missing are left out rather than drawn as zero.
+ */
+export function pairHistory(rows: readonly (Record<string, number[]> | undefined)[], x: ScalarQuantity, y: ScalarQuantity): [number, number][] {
+  const out: [number, number][] = [];
+  for (const row of rows) {
+    const a = rowValue(row, x);
+    const b = rowValue(row, y);
+    if (Number.isFinite(a) && Number.isFinite(b)) out.push([a, b]);
+  }
+  return out;
+}
+
+/** The pair a stress–strain plot at a point starts with: the first stress and strain components. */
+export function defaultPair(quantities: readonly ScalarQuantity[]): { x: string; y: string } {
+  const x = quantities.find((q) => q.field === 'strain') ?? quantities.find((q) => q.field === 'principalStrain') ?? quantities[0];
+  const y = quantities.find((q) => q.field === 'stress') ?? quantities.find((q) => q.field === 'vonMises') ?? quantities[1] ?? quantities[0];
+  return { x: x?.key ?? '', y: y?.key ?? '' };
+}
+
+/**
  * Range of a quantity over all frames from the ranges the split mesh file carries, without
  * reading a frame; null when a frame lacks them (then the caller scans the frames).
  */
