@@ -1,19 +1,18 @@
 /**
- * Live events of one run over Socket.IO (rooms per run, event names from packages/shared
- * runs.ts). Joins the run's room on connect and again after every reconnect, so a dropped
- * connection resumes by itself; the caller backfills from the REST endpoints.
+ * Live events of one run over the tab's shared Socket.IO connection (rooms per run, event names
+ * from packages/shared runs.ts). Joins the run's room at once if the socket is already up, and on
+ * every (re)connect, so a dropped connection resumes by itself; the caller backfills from the REST
+ * endpoints.
  */
 import { onBeforeUnmount } from 'vue';
-import { io, type Socket } from 'socket.io-client';
 import {
   RUN_SOCKET_EVENTS,
-  type RunClientToServerEvents,
   type RunFrameEvent,
   type RunIterationEvent,
   type RunLogEvent,
-  type RunServerToClientEvents,
   type RunStatusEvent,
 } from '@phaseloop/shared';
+import { acquireSocket, createKeyCounter } from './useSocket';
 
 export interface RunStreamHandlers {
   status(e: RunStatusEvent): void;
@@ -24,19 +23,44 @@ export interface RunStreamHandlers {
   joined(): void;
 }
 
-export function useRunStream(runId: string, handlers: RunStreamHandlers): { close(): void } {
-  const socket: Socket<RunServerToClientEvents, RunClientToServerEvents> = io({ path: '/socket.io', withCredentials: true, transports: ['websocket', 'polling'] });
-  socket.on('connect', () => {
-    socket.emit(RUN_SOCKET_EVENTS.watch, { runId }, (answer) => { if (answer.ok) handlers.joined(); });
-  });
-  socket.on('run:status', (e) => { if (e.runId === runId) handlers.status(e); });
-  socket.on('run:iteration', (e) => { if (e.runId === runId) handlers.iteration(e); });
-  socket.on('run:frame', (e) => { if (e.runId === runId) handlers.frame(e); });
-  socket.on('run:log', (e) => { if (e.runId === runId) handlers.log(e); });
+/** Run rooms this tab follows: the room is left only when the last watcher of a run goes. */
+const watchers = createKeyCounter();
 
+export function useRunStream(runId: string, handlers: RunStreamHandlers): { close(): void } {
+  const lease = acquireSocket();
+  const { socket } = lease;
+  watchers.add(runId);
+
+  // Joining is idempotent on the server, so every watcher asks for itself and gets its own ack.
+  const join = (): void => {
+    socket.emit(RUN_SOCKET_EVENTS.watch, { runId }, (answer) => { if (answer.ok) handlers.joined(); });
+  };
+  const onStatus = (e: RunStatusEvent): void => { if (e.runId === runId) handlers.status(e); };
+  const onIteration = (e: RunIterationEvent): void => { if (e.runId === runId) handlers.iteration(e); };
+  const onFrame = (e: RunFrameEvent): void => { if (e.runId === runId) handlers.frame(e); };
+  const onLog = (e: RunLogEvent): void => { if (e.runId === runId) handlers.log(e); };
+
+  socket.on('connect', join);
+  socket.on('run:status', onStatus);
+  socket.on('run:iteration', onIteration);
+  socket.on('run:frame', onFrame);
+  socket.on('run:log', onLog);
+  lease.onRelease(() => {
+    socket.off('connect', join);
+    socket.off('run:status', onStatus);
+    socket.off('run:iteration', onIteration);
+    socket.off('run:frame', onFrame);
+    socket.off('run:log', onLog);
+  });
+  // The bell may have connected the shared socket already; 'connect' would then not fire again.
+  if (socket.connected) join();
+
+  let closed = false;
   function close(): void {
-    if (socket.connected) socket.emit(RUN_SOCKET_EVENTS.unwatch, { runId });
-    socket.close();
+    if (closed) return;
+    closed = true;
+    if (watchers.remove(runId) && socket.connected) socket.emit(RUN_SOCKET_EVENTS.unwatch, { runId });
+    lease.release();
   }
   onBeforeUnmount(close);
   return { close };

@@ -4,6 +4,7 @@ import * as authApi from '@/api/auth';
 import { isApiError } from '@/api/http';
 import { sameId, type Id, type Membership, type ProjectRole, type User } from '@/api/types';
 import { mayDo, type ProjectAction } from '@/utils/roles';
+import { closeSharedSocket } from '@/composables/useSocket';
 
 /** Who is signed in, and their role in every project they belong to. */
 export const useAuthStore = defineStore('auth', () => {
@@ -27,6 +28,8 @@ export const useAuthStore = defineStore('auth', () => {
   function clear(): void {
     user.value = null;
     memberships.value = [];
+    // The live socket was authenticated with the session that just ended; the next sign-in opens a new one.
+    closeSharedSocket();
   }
 
   /** Reloads the session from the server; a 401 simply means "signed out". */
