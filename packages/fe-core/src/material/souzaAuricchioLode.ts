@@ -100,36 +100,42 @@ export function eigenSym3(a: Float64Array, d: Float64Array, V: Float64Array): vo
     const off = a[1] * a[1] + a[2] * a[2] + a[5] * a[5];
     const diag = a[0] * a[0] + a[4] * a[4] + a[8] * a[8];
     if (off <= 1e-34 * diag || off === 0) break;
-    for (const [p, q] of [[0, 1], [0, 2], [1, 2]] as const) {
-      const apq = a[p * 3 + q];
-      if (apq === 0) continue;
-      const theta = (a[q * 3 + q] - a[p * 3 + p]) / (2 * apq);
-      const t = Math.sign(theta || 1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1));
-      const c = 1 / Math.sqrt(t * t + 1);
-      const s = t * c;
-      for (let k = 0; k < 3; k++) {
-        const akp = a[k * 3 + p];
-        const akq = a[k * 3 + q];
-        a[k * 3 + p] = c * akp - s * akq;
-        a[k * 3 + q] = s * akp + c * akq;
-      }
-      for (let k = 0; k < 3; k++) {
-        const apk = a[p * 3 + k];
-        const aqk = a[q * 3 + k];
-        a[p * 3 + k] = c * apk - s * aqk;
-        a[q * 3 + k] = s * apk + c * aqk;
-      }
-      for (let k = 0; k < 3; k++) {
-        const vkp = V[k * 3 + p];
-        const vkq = V[k * 3 + q];
-        V[k * 3 + p] = c * vkp - s * vkq;
-        V[k * 3 + q] = s * vkp + c * vkq;
-      }
-    }
+    // The pairs are spelled out (not a list of pairs) so a sweep allocates nothing.
+    jacobiRotate(a, V, 0, 1);
+    jacobiRotate(a, V, 0, 2);
+    jacobiRotate(a, V, 1, 2);
   }
   d[0] = a[0];
   d[1] = a[4];
   d[2] = a[8];
+}
+
+/** One Jacobi rotation that zeroes a[p][q] (p < q), accumulated into V. */
+function jacobiRotate(a: Float64Array, V: Float64Array, p: number, q: number): void {
+  const apq = a[p * 3 + q];
+  if (apq === 0) return;
+  const theta = (a[q * 3 + q] - a[p * 3 + p]) / (2 * apq);
+  const t = Math.sign(theta || 1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1));
+  const c = 1 / Math.sqrt(t * t + 1);
+  const s = t * c;
+  for (let k = 0; k < 3; k++) {
+    const akp = a[k * 3 + p];
+    const akq = a[k * 3 + q];
+    a[k * 3 + p] = c * akp - s * akq;
+    a[k * 3 + q] = s * akp + c * akq;
+  }
+  for (let k = 0; k < 3; k++) {
+    const apk = a[p * 3 + k];
+    const aqk = a[q * 3 + k];
+    a[p * 3 + k] = c * apk - s * aqk;
+    a[q * 3 + k] = s * apk + c * aqk;
+  }
+  for (let k = 0; k < 3; k++) {
+    const vkp = V[k * 3 + p];
+    const vkq = V[k * 3 + q];
+    V[k * 3 + p] = c * vkp - s * vkq;
+    V[k * 3 + q] = s * vkp + c * vkq;
+  }
 }
 
 /**
@@ -149,16 +155,33 @@ export class LodeGauge {
   /** ‖v − e‖ from the last prox (the multiplier sum κ follows from it). */
   lastGap = 0;
 
-  constructor(readonly shape: LodeShape) {}
-
   /** dk/dφ of the last kAt() call. */
   private kPhi = 0;
+  // The angle search of prox() reads its data from these fields rather than from closures made
+  // per call: it runs tens of times per update and closures cost an allocation each.
+  /** Which objective the angle search maximises: 0 the free branch M, 1 the surface g = ε_L. */
+  private branch: 0 | 1 = 0;
+  private rv = 0;
+  private pv = 0;
+  private lt = 0;
+  private lh = 0;
+  private epsL = 0;
 
-  /** k(φ) = K(cos 3φ); also leaves dk/dφ in kPhi. */
+  constructor(readonly shape: LodeShape) {}
+
+  /**
+   * k(φ) = K(cos 3φ); also leaves dk/dφ in kPhi. The arithmetic is lodeK's (K and K1 only),
+   * written out so the hot angle search builds no result object.
+   */
   private kAt(phi: number): number {
-    const r = lodeK(this.shape, Math.cos(3 * phi));
-    this.kPhi = r.K1 * -3 * Math.sin(3 * phi);
-    return r.K;
+    const s = this.shape;
+    const gx = Math.max(-1, Math.min(1, s.gamma * Math.cos(3 * phi)));
+    const root = Math.sqrt(Math.max(1 - gx * gx, 1e-300));
+    const psi = s.A - Math.acos(gx) / 3;
+    const d1 = s.gamma / (3 * root);
+    const K1 = (-Math.sin(psi) * d1) / s.kt;
+    this.kPhi = K1 * -3 * Math.sin(3 * phi);
+    return Math.cos(psi) / s.kt;
   }
 
   /** Value of g for a deviatoric KM vector. */
@@ -275,19 +298,14 @@ export class LodeGauge {
     const pv = Math.atan2(y, x);
     const lt = lam * tau;
     const lh = lam * h;
+    this.rv = rv;
+    this.pv = pv;
+    this.lt = lt;
+    this.lh = lh;
+    this.epsL = epsL;
     // free branch: maximise M(φ) = (c − λτk)/√(1 + λh k²), c = ρ_v cos(φ − φ_v)
-    const M = (phi: number) => {
-      const k = this.kAt(phi);
-      return (rv * Math.cos(phi - pv) - lt * k) / Math.sqrt(1 + lh * k * k);
-    };
-    const dM = (phi: number) => {
-      const k = this.kAt(phi);
-      const k1 = this.kPhi;
-      const cc = rv * Math.cos(phi - pv);
-      const c1 = -rv * Math.sin(phi - pv);
-      return (c1 - lt * k1) * (1 + lh * k * k) - (cc - lt * k) * lh * k * k1;
-    };
-    let phi = this.maximise(M, dM, pv);
+    this.branch = 0;
+    let phi = this.maximise(pv);
     let k = this.kAt(phi);
     const top = rv * Math.cos(phi - pv) - lt * k;
     let regime: 0 | 1 | 2 = 1;
@@ -299,16 +317,8 @@ export class LodeGauge {
       rho = top / (1 + lh * k * k);
       if (rho * k > epsL) {
         // on the surface g = ε_L: maximise Q(φ) = c/k − ε_L/(2k²)
-        const Q = (p: number) => {
-          const kk = this.kAt(p);
-          return (rv * Math.cos(p - pv)) / kk - epsL / (2 * kk * kk);
-        };
-        const dQ = (p: number) => {
-          const kk = this.kAt(p);
-          const k1 = this.kPhi;
-          return -rv * Math.sin(p - pv) * kk - rv * Math.cos(p - pv) * k1 + (epsL * k1) / kk;
-        };
-        phi = this.maximise(Q, dQ, pv);
+        this.branch = 1;
+        phi = this.maximise(pv);
         k = this.kAt(phi);
         rho = epsL / k;
         regime = 2;
@@ -331,20 +341,51 @@ export class LodeGauge {
     return regime;
   }
 
+  /** The objective of the current branch at φ: M(φ) or Q(φ) (see prox). */
+  private objective(phi: number): number {
+    const rv = this.rv;
+    const pv = this.pv;
+    if (this.branch === 0) {
+      const k = this.kAt(phi);
+      return (rv * Math.cos(phi - pv) - this.lt * k) / Math.sqrt(1 + this.lh * k * k);
+    }
+    const kk = this.kAt(phi);
+    return (rv * Math.cos(phi - pv)) / kk - this.epsL / (2 * kk * kk);
+  }
+
+  /** A positive multiple of the objective's derivative at φ (same sign, same root). */
+  private slope(phi: number): number {
+    const rv = this.rv;
+    const pv = this.pv;
+    if (this.branch === 0) {
+      const lt = this.lt;
+      const lh = this.lh;
+      const k = this.kAt(phi);
+      const k1 = this.kPhi;
+      const cc = rv * Math.cos(phi - pv);
+      const c1 = -rv * Math.sin(phi - pv);
+      return (c1 - lt * k1) * (1 + lh * k * k) - (cc - lt * k) * lh * k * k1;
+    }
+    const kk = this.kAt(phi);
+    const k1 = this.kPhi;
+    return -rv * Math.sin(phi - pv) * kk - rv * Math.cos(phi - pv) * k1 + (this.epsL * k1) / kk;
+  }
+
   /**
-   * Maximiser of a smooth f over the Lode angle. The proximal map of an isotropic convex function
-   * keeps the order of the eigenvalues, so the optimum lies within π/3 of the argument's angle
-   * `start`: best of 17 samples there, then the root of f′ next to it.
+   * Maximiser of the current branch's objective over the Lode angle. The proximal map of an
+   * isotropic convex function keeps the order of the eigenvalues, so the optimum lies within π/3
+   * of the argument's angle `start`: best of 17 samples there, then the root of the slope next
+   * to it.
    */
-  private maximise(f: (p: number) => number, df: (p: number) => number, start: number): number {
+  private maximise(start: number): number {
     const n = 8;
     const step = Math.PI / 3 / n;
     let best = start;
-    let fb = f(start);
+    let fb = this.objective(start);
     for (let i = -n; i <= n; i++) {
       if (i === 0) continue;
       const p = start + i * step;
-      const v = f(p);
+      const v = this.objective(p);
       if (v > fb) {
         fb = v;
         best = p;
@@ -352,11 +393,11 @@ export class LodeGauge {
     }
     let a = best - step;
     let b = best + step;
-    let fa = df(a);
-    let fbd = df(b);
+    let fa = this.slope(a);
+    let fbd = this.slope(b);
     if (!(fa > 0 && fbd < 0)) {
-      // maximum sits on a sample (df ≈ 0 there) or the bracket is unusual: keep the sample
-      const d0 = df(best);
+      // maximum sits on a sample (slope ≈ 0 there) or the bracket is unusual: keep the sample
+      const d0 = this.slope(best);
       if (d0 === 0) return best;
       if (d0 > 0) {
         a = best;
@@ -371,7 +412,7 @@ export class LodeGauge {
     for (let it = 0; it < 200; it++) {
       let c = (a * fbd - b * fa) / (fbd - fa);
       if (!(c > a && c < b)) c = 0.5 * (a + b);
-      const fc = df(c);
+      const fc = this.slope(c);
       if (fc === 0 || b - a <= 1e-15 * Math.max(1, Math.abs(c))) return c;
       if (fc > 0) {
         a = c;
