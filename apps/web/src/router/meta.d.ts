@@ -17,5 +17,7 @@ declare module 'vue-router' {
     minimumRole?: ProjectRole;
     /** Pages about one project's data; they follow the project switcher. */
     perProject?: boolean;
+    /** Drawn without the app frame (header, navigation, footer): pages meant for printing. */
+    bare?: boolean;
   }
 }

@@ -77,6 +77,14 @@ export const routes: RouteRecordRaw[] = [
     meta: { title: 'Results', minimumRole: 'viewer' },
   },
   {
+    path: '/runs/:id/report',
+    name: 'run-report',
+    component: () => import('@/views/RunReportView.vue'),
+    props: true,
+    // A sheet for printing: no app header, navigation or footer around it.
+    meta: { title: 'Run report', minimumRole: 'viewer', bare: true },
+  },
+  {
     path: '/runs',
     name: 'runs',
     component: () => import('@/views/RunsView.vue'),

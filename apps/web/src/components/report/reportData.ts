@@ -76,6 +76,8 @@ interface ModelSegmentLike {
   duration?: unknown;
   targets?: unknown;
   temperature?: unknown;
+  /** Template segments (older definitions without a model) give the driving quantity as `load`. */
+  load?: unknown;
   increments?: unknown;
 }
 
@@ -84,6 +86,7 @@ function endValuesOf(s: ModelSegmentLike): string {
   if (typeof s.targets === 'object' && s.targets !== null) {
     for (const [name, v] of Object.entries(s.targets as Record<string, unknown>)) if (typeof v === 'number') parts.push(`${name} = ${formatNumber(v)}`);
   }
+  if (typeof s.load === 'number') parts.push(`load = ${formatNumber(s.load)}`);
   if (typeof s.temperature === 'number') parts.push(`T = ${formatNumber(s.temperature)} °C`);
   return parts.length > 0 ? parts.join(', ') : 'unchanged';
 }
