@@ -184,6 +184,13 @@ export class LodeGauge {
     return Math.cos(psi) / s.kt;
   }
 
+  /** k(φ) alone, as kAt() computes it: the objective needs no derivative, so skip its sines. */
+  private kValue(phi: number): number {
+    const s = this.shape;
+    const gx = Math.max(-1, Math.min(1, s.gamma * Math.cos(3 * phi)));
+    return Math.cos(s.A - Math.acos(gx) / 3) / s.kt;
+  }
+
   /** Value of g for a deviatoric KM vector. */
   value(e: ArrayLike<number>): number {
     let rr = 0;
@@ -346,10 +353,10 @@ export class LodeGauge {
     const rv = this.rv;
     const pv = this.pv;
     if (this.branch === 0) {
-      const k = this.kAt(phi);
+      const k = this.kValue(phi);
       return (rv * Math.cos(phi - pv) - this.lt * k) / Math.sqrt(1 + this.lh * k * k);
     }
-    const kk = this.kAt(phi);
+    const kk = this.kValue(phi);
     return (rv * Math.cos(phi - pv)) / kk - this.epsL / (2 * kk * kk);
   }
 
