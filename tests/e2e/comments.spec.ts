@@ -23,7 +23,7 @@ async function comment(page: Page, prefix: 'material-version' | 'study', body: s
     page.waitForResponse((r) => r.url().endsWith('/api/comments') && r.request().method() === 'POST'),
     page.getByTestId(`${prefix}-comment-add`).click(),
   ]);
-  expect(answer.status()).toBe(200);
+  expect(answer.status()).toBe(201);
   await expect(page.getByTestId(`${prefix}-comments`)).toContainText(body);
   return ((await answer.json()) as { targetId: string }).targetId;
 }
