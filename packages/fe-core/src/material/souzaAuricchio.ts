@@ -125,7 +125,12 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
   private readonly gauge: LodeGauge | null;
   private readonly grad = new Float64Array(6);
   private readonly hess = new Float64Array(36);
-  private kappaLode = 0;
+  /**
+   * Where the gauge's angle searches ended in the previous trial of this update (free branch,
+   * surface), relative to v's angle; the Δζ iteration moves v a little from trial to trial, so
+   * the next search starts there. Cleared per update: no point's result depends on another's.
+   */
+  private readonly lodeWarm = new Float64Array(2);
 
   constructor(readonly params: SouzaAuricchioConstants) {
     const ratio = params.tc_ratio ?? 1;
@@ -192,7 +197,7 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
     const p = this.params;
     const lam = dz / (2 * p.G * dz + p.R);
     for (let i = 0; i < 6; i++) this.v[i] = this.etrN[i] + lam * this.sTr[i];
-    const regime = gauge.prox(this.v, lam, this.tau, p.h, p.eps_L, this.etr);
+    const regime = gauge.prox(this.v, lam, this.tau, p.h, p.eps_L, this.etr, this.lodeWarm);
     let dd = 0;
     let qq = 0;
     for (let i = 0; i < 6; i++) {
@@ -277,6 +282,7 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
       ss += si * si;
       sn += si * x;
     }
+    this.lodeWarm.fill(NaN);
     const transforms = this.isTransforming(Math.sqrt(qn2), ss, sn);
     let etr = this.etr;
     if (transforms) {

@@ -17,6 +17,9 @@
  */
 
 const SQ2 = Math.SQRT2;
+/** First step of the local angle search: from a warm angle (small moves) or from v's angle. */
+const WARM_STEP = 1e-3;
+const COLD_STEP = Math.PI / 48;
 const SQ6 = Math.sqrt(6);
 
 export interface LodeShape {
@@ -294,8 +297,14 @@ export class LodeGauge {
   /**
    * e = argmin ½‖e − v‖² + λτ g(e) + ½λh g(e)² subject to g(e) ≤ epsL (epsL = ∞ for none),
    * for a deviatoric KM vector v. Returns the regime: 0 (e = 0), 1 (free), 2 (on g = epsL).
+   *
+   * `warm` (optional, two angles, NaN for none) holds where the free and the surface optimum lay
+   * relative to v's own angle in the caller's previous call; the search starts there and writes
+   * this call's offsets back. A caller that solves for one update passes the same array to every
+   * call of that update and clears it before the next update, so results never depend on other
+   * integration points.
    */
-  prox(v: ArrayLike<number>, lam: number, tau: number, h: number, epsL: number, e: Float64Array): 0 | 1 | 2 {
+  prox(v: ArrayLike<number>, lam: number, tau: number, h: number, epsL: number, e: Float64Array, warm?: Float64Array): 0 | 1 | 2 {
     kmToMat(v, this.m3);
     eigenSym3(this.m3, this.d, this.V);
     const d = this.d;
@@ -310,9 +319,18 @@ export class LodeGauge {
     this.lt = lt;
     this.lh = lh;
     this.epsL = epsL;
+    if (rv < lt * this.shape.kMin * (1 - 1e-9)) {
+      // v lies inside λτB° with room to spare (c ≤ ρ_v < λτ k for every φ): e = 0 without any
+      // search, the answer the search gives too.
+      e.fill(0);
+      let gap = 0;
+      for (let i = 0; i < 6; i++) gap += v[i] * v[i];
+      this.lastGap = Math.sqrt(gap);
+      return 0;
+    }
     // free branch: maximise M(φ) = (c − λτk)/√(1 + λh k²), c = ρ_v cos(φ − φ_v)
     this.branch = 0;
-    let phi = this.maximise(pv);
+    let phi = this.search(pv, warm);
     let k = this.kAt(phi);
     const top = rv * Math.cos(phi - pv) - lt * k;
     let regime: 0 | 1 | 2 = 1;
@@ -325,7 +343,7 @@ export class LodeGauge {
       if (rho * k > epsL) {
         // on the surface g = ε_L: maximise Q(φ) = c/k − ε_L/(2k²)
         this.branch = 1;
-        phi = this.maximise(pv);
+        phi = this.search(pv, warm);
         k = this.kAt(phi);
         rho = epsL / k;
         regime = 2;
@@ -346,6 +364,61 @@ export class LodeGauge {
     for (let i = 0; i < 6; i++) gap += (v[i] - e[i]) ** 2;
     this.lastGap = Math.sqrt(gap);
     return regime;
+  }
+
+  /**
+   * Optimum of the current branch near `start`: first a local search from the warm angle (or
+   * from `start`), accepted only when the optimality certificate holds, else the full sampled
+   * search. Both end on the same bracketed root, so they agree to its tolerance.
+   */
+  private search(start: number, warm: Float64Array | undefined): number {
+    const slot = this.branch;
+    const offset = warm && warm[slot] === warm[slot] ? warm[slot] : 0;
+    let phi = this.climb(start, offset, warm ? WARM_STEP : COLD_STEP);
+    if (!(phi === phi && this.certified(phi))) phi = this.maximise(start);
+    if (warm) warm[slot] = phi - start;
+    return phi;
+  }
+
+  /**
+   * Whether a stationary angle is the global optimum. The objective is convex in e, so a
+   * stationary point of it is the minimiser; the angle search is stationary in φ, and these
+   * tests add what makes it stationary in e: on the free branch a positive radius (top > 0;
+   * the radius is optimal by construction), on the surface v − e pointing out of {g ≤ ε_L}
+   * (then e is v's projection onto that convex set, the global maximum of Q).
+   */
+  private certified(phi: number): boolean {
+    const rv = this.rv;
+    const pv = this.pv;
+    const k = this.kAt(phi);
+    const c = rv * Math.cos(phi - pv);
+    if (this.branch === 0) return c - this.lt * k > 0;
+    // (v − e)·∇g with e = (ε_L/k) e_r and ∇g = k e_r + k′ e_φ in the principal plane
+    return k * (c - this.epsL / k) + this.kPhi * rv * Math.sin(pv - phi) > 0;
+  }
+
+  /**
+   * Local maximiser from start + offset: steps uphill with doubling steps until the slope changes
+   * sign, then the same Illinois iteration and tolerance as maximise(). NaN when no bracket
+   * turns up within the sampled window of maximise().
+   */
+  private climb(start: number, offset: number, first: number): number {
+    const reach = Math.PI / 3 + Math.PI / 24;
+    let near = start + Math.max(-reach, Math.min(reach, offset));
+    let sNear = this.slope(near);
+    if (sNear === 0) return near;
+    const dir = sNear > 0 ? 1 : -1;
+    let w = first;
+    for (;;) {
+      const far = near + dir * w;
+      if (Math.abs(far - start) > reach) return NaN;
+      const sFar = this.slope(far);
+      if (sFar === 0) return far;
+      if (sFar > 0 !== sNear > 0) return dir > 0 ? this.illinois(near, sNear, far, sFar) : this.illinois(far, sFar, near, sNear);
+      near = far; // still uphill: the bracket's near end moves along
+      sNear = sFar;
+      w *= 2;
+    }
   }
 
   /** The objective of the current branch at φ: M(φ) or Q(φ) (see prox). */
@@ -415,6 +488,11 @@ export class LodeGauge {
       }
       if (!(fa > 0 && fbd < 0)) return best;
     }
+    return this.illinois(a, fa, b, fbd);
+  }
+
+  /** Bracketed secant (Illinois) for the root of the slope in [a, b], slope(a) > 0 > slope(b). */
+  private illinois(a: number, fa: number, b: number, fbd: number): number {
     let side = 0;
     for (let it = 0; it < 200; it++) {
       let c = (a * fbd - b * fa) / (fbd - fa);
