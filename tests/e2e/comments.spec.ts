@@ -33,6 +33,7 @@ test('a reviewer comments on a material version and on a study', async ({ page }
   await page.goto('/materials');
   await waitForData(page);
   await page.locator('a.cell-name').first().click();
+  await expect(page).toHaveURL(/\/materials\/[0-9a-f-]{36}$/);
   await waitForData(page);
   const materialUrl = page.url();
   material = { url: materialUrl, id: await comment(page, 'material-version', materialNote) };
@@ -40,6 +41,7 @@ test('a reviewer comments on a material version and on a study', async ({ page }
   await page.goto('/studies');
   await waitForData(page);
   await page.getByTestId('studies-table').getByRole('link').first().click();
+  await expect(page).toHaveURL(/\/studies\/[0-9a-f-]{36}$/);
   await waitForData(page);
   await expect(page.getByTestId('study-comment-card')).toBeVisible();
   const studyUrl = page.url();
