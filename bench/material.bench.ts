@@ -7,6 +7,9 @@
  * Run: npx tsx bench/material.bench.ts (scripts/bench.sh runs every bench/*.bench.ts).
  * Both sides time CPU seconds of the process (C: CLOCK_PROCESS_CPUTIME_ID) and keep the best of
  * five repetitions, so other work on the machine does not enter the ratio.
+ * A second, TypeScript-only table sets the Souza–Auricchio model with tension–compression
+ * asymmetry (tc_ratio, lode_shape: demo values) beside the symmetric one on the same workload, in
+ * µs per update; bench/c has no version of the asymmetric model, so there is no C column.
  * Writes its section of bench/results.md between <!-- material --> and <!-- /material -->.
  */
 import { execFileSync } from 'node:child_process';
@@ -35,8 +38,12 @@ function material(model: Model): Material<unknown> {
       C_M: 7, C_A: 7, sigma_star: 300, H_min: 0.02, H_sat: 0.05, k_t: 0.01, n1: 1, n2: 1, n3: 1, n4: 1,
     }) as Material<unknown>;
   }
-  return createSouzaAuricchio({ E: 50000, nu: 0.3, alpha: 0, T_ref: 20, h: 1500, beta: 6, T0: 0, R: 55, eps_L: 0.05 }) as Material<unknown>;
+  return createSouzaAuricchio(SOUZA) as Material<unknown>;
 }
+
+const SOUZA = { E: 50000, nu: 0.3, alpha: 0, T_ref: 20, h: 1500, beta: 6, T0: 0, R: 55, eps_L: 0.05 };
+/** Demo asymmetry: compression needs 1.3× the stress to start and transforms 1/1.3 of the strain. */
+const ASYMMETRY = { tc_ratio: 1.3, lode_shape: 0.8 };
 
 function amplitude(model: Model, regime: Regime): number {
   if (model === 'lagoudas2012') return regime === 'transforming' ? 0.02 : 0.001;
@@ -49,13 +56,15 @@ interface Timing {
 }
 
 function runTs(model: Model, regime: Regime, count: number): Timing {
-  const m = material(model);
+  return timeUpdates(material(model), amplitude(model, regime), count);
+}
+
+function timeUpdates(m: Material<unknown>, amp: number, count: number): Timing {
   const stateOld = new Float64Array(m.stateSize);
   const state = new Float64Array(m.stateSize);
   const out = createMaterialPointOutput();
   const strain = new Float64Array(6);
   const input = { strain, strainOld: new Float64Array(6), temperature: T, temperatureOld: T };
-  const amp = amplitude(model, regime);
   let sink = 0;
   const loop = (n: number) => {
     for (let k = 0; k < n; k++) {
@@ -116,6 +125,31 @@ function writeSection(text: string): void {
   writeFileSync(file, doc);
 }
 
+/** Symmetric against asymmetric Souza–Auricchio, TypeScript only (no C version of the latter). */
+function asymmetryTable(): string[] {
+  // A quarter of the updates: an asymmetric transforming update costs tens of µs.
+  const count = Math.max(1, Math.round(COUNT / 4));
+  const lines = [
+    `### Souza–Auricchio: symmetric vs tension–compression asymmetry (TypeScript only)`,
+    '',
+    `Same workload as above, ${count.toLocaleString('en')} updates per case; asymmetry tc_ratio ${ASYMMETRY.tc_ratio}, lode_shape ${ASYMMETRY.lode_shape} (demo values). ` +
+      'There is no C reference for the asymmetric model.',
+    '',
+    '| regime | symmetric (µs/update) | asymmetric (µs/update) | asymmetric / symmetric |',
+    '|---|---|---|---|',
+  ];
+  const symmetric = createSouzaAuricchio(SOUZA) as Material<unknown>;
+  const asymmetric = createSouzaAuricchio({ ...SOUZA, ...ASYMMETRY }) as Material<unknown>;
+  for (const regime of ['elastic', 'transforming'] as const) {
+    const amp = amplitude('souza-auricchio', regime);
+    const us = (t: Timing): number => 1e6 / t.perSecond;
+    const a = us(timeUpdates(symmetric, amp, count));
+    const b = us(timeUpdates(asymmetric, amp, count));
+    lines.push(`| ${regime} | ${a.toFixed(3)} | ${b.toFixed(3)} | ${(b / a).toFixed(1)}× |`);
+  }
+  return lines;
+}
+
 function main(): void {
   const exe = compileC();
   const lines = [
@@ -139,6 +173,7 @@ function main(): void {
     }
   }
   lines.push('', `Target: within 3× of C — worst case ${worst.toFixed(2)}× (${worst <= 3 ? 'met' : 'not met'}).`);
+  lines.push('', ...asymmetryTable());
   const text = lines.join('\n');
   console.log(text);
   writeSection(text);

@@ -305,6 +305,17 @@ export class LodeGauge {
    * integration points.
    */
   prox(v: ArrayLike<number>, lam: number, tau: number, h: number, epsL: number, e: Float64Array, warm?: Float64Array): 0 | 1 | 2 {
+    const lt = lam * tau;
+    let vv = 0;
+    for (let i = 0; i < 6; i++) vv += v[i] * v[i];
+    if (Math.sqrt(vv) < lt * this.shape.kMin * (1 - 1e-9)) {
+      // v lies inside λτB° with room to spare (c ≤ ρ_v = ‖v‖ < λτ k for every φ): e = 0
+      // without any search, the answer the search gives too; the margin covers the round-off
+      // between ‖v‖ and the principal-plane radius ρ_v.
+      e.fill(0);
+      this.lastGap = Math.sqrt(vv);
+      return 0;
+    }
     kmToMat(v, this.m3);
     eigenSym3(this.m3, this.d, this.V);
     const d = this.d;
@@ -312,22 +323,12 @@ export class LodeGauge {
     const y = (d[1] - d[2]) / SQ2;
     const rv = Math.hypot(x, y);
     const pv = Math.atan2(y, x);
-    const lt = lam * tau;
     const lh = lam * h;
     this.rv = rv;
     this.pv = pv;
     this.lt = lt;
     this.lh = lh;
     this.epsL = epsL;
-    if (rv < lt * this.shape.kMin * (1 - 1e-9)) {
-      // v lies inside λτB° with room to spare (c ≤ ρ_v < λτ k for every φ): e = 0 without any
-      // search, the answer the search gives too.
-      e.fill(0);
-      let gap = 0;
-      for (let i = 0; i < 6; i++) gap += v[i] * v[i];
-      this.lastGap = Math.sqrt(gap);
-      return 0;
-    }
     // free branch: maximise M(φ) = (c − λτk)/√(1 + λh k²), c = ρ_v cos(φ − φ_v)
     this.branch = 0;
     let phi = this.search(pv, warm);
