@@ -53,7 +53,7 @@ test.describe.serial('run report', () => {
     const block = page.getByTestId('report-material').first();
     await expect(block).toContainText(`version ${material?.version}`);
     const cell = block.locator('tr').filter({ has: page.locator('th', { hasText: new RegExp(`^${key}$`) }) }).locator('td');
-    await expect(cell).toHaveText(/^\S+ MPa$/);
+    await expect(cell).toHaveText(/^\S+\s+MPa$/);
     const printed = Number.parseFloat((await cell.textContent()) ?? '');
     const stored = material?.params[key] as number;
     expect(Math.abs(printed - stored) / stored).toBeLessThan(1e-3);
