@@ -70,6 +70,13 @@ test.describe.serial('run report', () => {
     mkdirSync(path.join(ARTIFACTS, 'screens'), { recursive: true });
     await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'run-report.png'), fullPage: true });
 
+    // On paper the print button goes; the sheet and its caution stay.
+    await page.emulateMedia({ media: 'print' });
+    await expect(page.getByTestId('report-print')).toBeHidden();
+    await expect(page.getByTestId('report-caution')).toBeVisible();
+    await page.screenshot({ path: path.join(ARTIFACTS, 'screens', 'run-report-print.png'), fullPage: true });
+    await page.emulateMedia({ media: 'screen' });
+
     const pdf = await page.pdf({ format: 'A4', printBackground: true });
     expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
     // A real report (text, tables, at least one vector curve) is far above an empty page's few kB.

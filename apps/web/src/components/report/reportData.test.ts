@@ -119,6 +119,11 @@ describe('historyTimeCurves', () => {
     expect(curves).toHaveLength(1);
     expect(curves[0]).toMatchObject({ yLabel: 'right.Fx (N)', points: [[0, 0], [1, 5]] });
   });
+
+  it('leaves out columns that never change', () => {
+    const curves = historyTimeCurves({ time: [0, 1, 2], 'tip.temperature': [37, 37, 37], 'tip.rz': [0, 0, 0], 'tip.uy': [0, -0.1, 0] });
+    expect(curves.map((c) => c.title)).toEqual(['tip.uy against time']);
+  });
 });
 
 describe('formatNumber and elementTypeSummary', () => {

@@ -194,15 +194,21 @@ export function runStatisticRows(stats: unknown, frameCount: number): ValueRow[]
   return rows;
 }
 
+/** A column that never changes (a held temperature, a rotation of a plane model) says nothing as a curve. */
+function varies(values: readonly number[]): boolean {
+  const finite = values.filter((v) => Number.isFinite(v));
+  return finite.some((v) => v !== finite[0]);
+}
+
 /**
  * Curves for a study without a template (uploaded mesh or model document): each history column
- * against time, at most `limit`, so the report still shows how the run went.
+ * that changes, against time, at most `limit`, so the report still shows how the run went.
  */
 export function historyTimeCurves(history: Record<string, number[]> | undefined, limit = 4): HistoryCurve[] {
   const time = history?.time;
   if (!history || !time) return [];
   return Object.keys(history)
-    .filter((k) => k !== 'time')
+    .filter((k) => k !== 'time' && varies(history[k]!))
     .slice(0, limit)
     .map((key) => {
       const ys = history[key]!;
