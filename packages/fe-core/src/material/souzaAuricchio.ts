@@ -211,16 +211,27 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
     return Math.sqrt(dd) / dz - 1;
   }
 
-  /** Bracketed secant (Illinois) for the nontrivial root of trial(Δζ) = 0. */
+  /**
+   * Bracketed secant (Illinois) for the nontrivial root of trial(Δζ) = 0. With the gauge, where
+   * every trial costs an angle search, the secant steps use ψ = f/(1 + f) = 1 − Δζ/‖Δeᵗʳ‖ in
+   * place of f = trial(Δζ): same sign and root, and close to linear in Δζ (‖Δeᵗʳ‖ grows like
+   * λ = Δζ/(2GΔζ + R), so f is close to hyperbolic), which saves about half the trials. The
+   * stopping test stays on f; the symmetric model keeps its iteration on f.
+   */
   private solveIncrement(): void {
     const p = this.params;
     let qn = 0;
     for (let i = 0; i < 6; i++) qn += this.etrN[i] * this.etrN[i];
     const upper = Math.sqrt(qn) + p.eps_L / (this.gauge ? this.gauge.shape.kMin * 0.999 : 1);
+    const steer = this.gauge !== null;
     let a = 1e-12 * upper;
     let fa = this.trial(a);
     let b = upper;
     let fb = this.trial(b);
+    if (steer) {
+      fa = steered(fa);
+      fb = steered(fb);
+    }
     if (!(fa > 0) || fb > 0) {
       // The elastic test said "transform", so fa > 0 holds up to round-off; accept the end.
       if (fb > 0) this.trial(b);
@@ -232,8 +243,9 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
     for (let it = 0; it < MAX_ITER; it++) {
       let c = (a * fb - b * fa) / (fb - fa);
       if (!(c > a && c < b)) c = 0.5 * (a + b);
-      const fc = this.trial(c);
-      if (Math.abs(fc) <= 1e-14 || b - a <= tolZ) return;
+      const raw = this.trial(c);
+      if (Math.abs(raw) <= 1e-14 || b - a <= tolZ) return;
+      const fc = steer ? steered(raw) : raw;
       if (fc < 0) {
         b = c;
         fb = fc;
@@ -445,6 +457,11 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
       for (let j = 0; j < 6; j++) t[i * 6 + j] -= 2 * p.G * B[i * 6 + j];
     }
   }
+}
+
+/** f/(1 + f) for f = trial(Δζ) ≥ −1 (f itself at −1, where the ratio has no finite value). */
+function steered(f: number): number {
+  return f > -1 ? f / (1 + f) : f;
 }
 
 /** Gaussian elimination with partial pivoting: A (n×n) X = B (n×m), X overwrites B. */
