@@ -224,6 +224,7 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
     for (let i = 0; i < 6; i++) qn += this.etrN[i] * this.etrN[i];
     const upper = Math.sqrt(qn) + p.eps_L / (this.gauge ? this.gauge.shape.kMin * 0.999 : 1);
     const steer = this.gauge !== null;
+    if (steer) this.lodeWarm.fill(NaN); // a fresh start per update (see lodeWarm)
     let a = 1e-12 * upper;
     let fa = this.trial(a);
     let b = upper;
@@ -294,7 +295,6 @@ export class SouzaAuricchioMaterial implements Material<SouzaAuricchioConstants>
       ss += si * si;
       sn += si * x;
     }
-    this.lodeWarm.fill(NaN);
     const transforms = this.isTransforming(Math.sqrt(qn2), ss, sn);
     let etr = this.etr;
     if (transforms) {
