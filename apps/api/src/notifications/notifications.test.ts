@@ -79,5 +79,9 @@ describe('run notifications', () => {
     expect(decided.items[0]).toMatchObject({ kind: 'review.rejected', runId: run.id, read: false });
     expect(decided.items[0].body).toContain('mesh too coarse at the strut crown');
     expect(pushed.at(-1)).toMatchObject({ userId: analyst.user.id, event: { notification: { kind: 'review.rejected' } } });
+    // The run answer names who decided and when (the printable report shows them).
+    const decidedRun = (await analyst.client.get(`/api/runs/${run.id}`).expect(200)).body;
+    expect(decidedRun).toMatchObject({ reviewStatus: 'rejected', reviewedBy: reviewer.user.id, reviewReason: 'mesh too coarse at the strut crown' });
+    expect(Number.isNaN(Date.parse(decidedRun.reviewedAt))).toBe(false);
   });
 });

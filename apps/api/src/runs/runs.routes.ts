@@ -14,7 +14,7 @@ export const runDto = z.object({
   message: z.string(), solverVersion: z.string(), progress: z.record(z.string(), z.unknown()), queuePosition: z.number().int().nullable(),
   submittedBy: z.string().nullable(), createdAt: z.string(), queuedAt: z.string().nullable(), startedAt: z.string().nullable(),
   finishedAt: z.string().nullable(), cancelRequested: z.boolean(), cancelledBy: z.string().nullable(), attempts: z.number().int(), priority: z.number().int(), reviewStatus: z.enum(['none', 'requested', 'approved', 'rejected']),
-  reviewReason: z.string(), snapshot: z.record(z.string(), z.unknown()).optional(),
+  reviewReason: z.string(), reviewedBy: z.string().nullable(), reviewedAt: z.string().nullable(), snapshot: z.record(z.string(), z.unknown()).optional(),
 });
 
 export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {

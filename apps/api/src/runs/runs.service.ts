@@ -38,6 +38,9 @@ export interface RunDto {
   priority: number;
   reviewStatus: RunReviewStatus;
   reviewReason: string;
+  /** Who approved or rejected the run, and when (null until decided). */
+  reviewedBy: string | null;
+  reviewedAt: string | null;
   snapshot?: Record<string, unknown>;
 }
 
@@ -62,7 +65,7 @@ export async function toRunDto(sequelize: Sequelize, run: Run, withSnapshot = fa
     createdAt: run.createdAt.toISOString(), queuedAt: iso(run.queuedAt), startedAt: iso(run.startedAt),
     finishedAt: iso(run.finishedAt), cancelRequested: run.cancelRequestedAt !== null, cancelledBy: run.cancelledBy ?? null,
     attempts: run.attempts ?? 0, priority: run.priority ?? 0, reviewStatus: run.reviewStatus,
-    reviewReason: run.reviewReason, ...(withSnapshot ? { snapshot: run.snapshot as unknown as Record<string, unknown> } : {}),
+    reviewReason: run.reviewReason, reviewedBy: run.reviewedBy ?? null, reviewedAt: iso(run.reviewedAt ?? null), ...(withSnapshot ? { snapshot: run.snapshot as unknown as Record<string, unknown> } : {}),
   };
 }
 
