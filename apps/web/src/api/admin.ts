@@ -5,7 +5,7 @@ export async function listUsers(): Promise<AdminUser[]> {
   return (await http.get<ItemList<AdminUser>>('/api/admin/users')).items;
 }
 
-export function updateUser(id: Id, input: { isAdmin?: boolean; disabled?: boolean; name?: string }): Promise<unknown> {
+export function updateUser(id: Id, input: { isAdmin?: boolean; disabled?: boolean; name?: string; maxActiveRuns?: number; maxNodes?: number }): Promise<unknown> {
   return http.patch<unknown>(`/api/admin/users/${seg(id)}`, input);
 }
 

@@ -115,6 +115,9 @@ export interface AdminUser {
   createdAt: IsoDateTime;
   lastLoginAt: IsoDateTime | null;
   memberships: Membership[];
+  /** Quotas checked when a run is queued: runs queued or running at once, and model size in nodes. */
+  maxActiveRuns: number;
+  maxNodes: number;
 }
 
 export interface Invitation {
