@@ -23,7 +23,8 @@ export interface ResultFrame {
   lineElements?: Record<string, ((number | null)[] | null)[]>;
 }
 
-export interface ResultDocument {
+/** What both sources share: everything but the frames. */
+interface ResultHeader {
   format: string;
   title: string;
   status: string;
@@ -38,6 +39,9 @@ export interface ResultDocument {
   /** Ids of the bar and beam elements that frames carry `lineElements` rows for (optional key). */
   lineElements?: number[];
   history: Record<string, number[]>;
+}
+
+export interface ResultDocument extends ResultHeader {
   frames: ResultFrame[];
 }
 
@@ -59,18 +63,7 @@ export interface FrameMeta {
   displacementMagnitude?: ValueRange;
 }
 
-export interface ResultMeta {
-  format: string;
-  title: string;
-  status: string;
-  message: string;
-  nodes: number[];
-  coordinates: [number, number][];
-  elements: ResultElement[];
-  sections?: Record<string, unknown>;
-  fields: Record<string, string[]>;
-  lineElements?: number[];
-  history: Record<string, number[]>;
+export interface ResultMeta extends ResultHeader {
   frames: FrameMeta[];
 }
 
