@@ -9,6 +9,26 @@ export const runStateSchema = z.enum(RUN_STATES);
 export type RunState = z.infer<typeof runStateSchema>;
 
 /** States a run never leaves. */
+export const RUN_REVIEW_STATUSES = ['none', 'requested', 'approved', 'rejected'] as const;
+export type RunReviewStatus = (typeof RUN_REVIEW_STATUSES)[number];
+
+/**
+ * A run as the API answers it (GET /api/runs/:id and the other run routes); the frozen snapshot
+ * only on GET /api/runs/:id. One schema for the API's OpenAPI document and the web client's type.
+ */
+export const runDtoSchema = z.object({
+  id: z.string().uuid(), projectId: z.string().uuid(), studyId: z.string().uuid(), sweepId: z.string().uuid().nullable(),
+  number: z.number().int(), state: runStateSchema, message: z.string(), solverVersion: z.string(),
+  progress: z.record(z.string(), z.unknown()), queuePosition: z.number().int().nullable(), submittedBy: z.string().nullable(),
+  createdAt: z.string(), queuedAt: z.string().nullable(), startedAt: z.string().nullable(), finishedAt: z.string().nullable(),
+  cancelRequested: z.boolean(), cancelledBy: z.string().nullable(), attempts: z.number().int(), priority: z.number().int(),
+  reviewStatus: z.enum(RUN_REVIEW_STATUSES), reviewReason: z.string(),
+  /** Who approved or rejected the run, and when (null until decided). */
+  reviewedBy: z.string().nullable(), reviewedAt: z.string().nullable(),
+  snapshot: z.record(z.string(), z.unknown()).optional(),
+});
+export type RunDto = z.infer<typeof runDtoSchema>;
+
 export const FINAL_RUN_STATES: readonly RunState[] = ['succeeded', 'failed', 'cancelled'];
 export function isFinalRunState(state: RunState): boolean {
   return FINAL_RUN_STATES.includes(state);

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import type { MaterialParams, RunState } from '@phaseloop/shared';
+import type { MaterialParams, RunReviewStatus, RunState } from '@phaseloop/shared';
 import type { StudyDefinition } from '../studies/study-definition';
 
 /** Everything a run needs, frozen at submission: later edits of the study or materials never change it. */
@@ -12,7 +12,7 @@ export interface RunSnapshot {
   submittedAt: string;
 }
 
-export type RunReviewStatus = 'none' | 'requested' | 'approved' | 'rejected';
+export type { RunReviewStatus } from '@phaseloop/shared';
 
 export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run>> {
   declare id: CreationOptional<string>;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { QueryTypes } from 'sequelize';
-import { RUN_STATES, runLogLineSchema, runLogQuerySchema, type RunState } from '@phaseloop/shared';
+import { RUN_STATES, runDtoSchema, runLogLineSchema, runLogQuerySchema, type RunState } from '@phaseloop/shared';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../context';
 import { idParams, projectParams, uuid } from '../http/common-schemas';
@@ -9,13 +9,7 @@ import { Run, type RunReviewStatus } from './runs.model';
 import { cancelRun, deleteRun, listStudyRuns, requestReview, requireRun, rerun, reviewRun, setRunPriority, submitRun, toRunDto } from './runs.service';
 import { listArtifacts, listFrames, listIterations, listLogLines, streamArtifact } from './results.service';
 
-export const runDto = z.object({
-  id: uuid, projectId: uuid, studyId: uuid, sweepId: uuid.nullable(), number: z.number().int(), state: z.enum(RUN_STATES),
-  message: z.string(), solverVersion: z.string(), progress: z.record(z.string(), z.unknown()), queuePosition: z.number().int().nullable(),
-  submittedBy: z.string().nullable(), createdAt: z.string(), queuedAt: z.string().nullable(), startedAt: z.string().nullable(),
-  finishedAt: z.string().nullable(), cancelRequested: z.boolean(), cancelledBy: z.string().nullable(), attempts: z.number().int(), priority: z.number().int(), reviewStatus: z.enum(['none', 'requested', 'approved', 'rejected']),
-  reviewReason: z.string(), reviewedBy: z.string().nullable(), reviewedAt: z.string().nullable(), snapshot: z.record(z.string(), z.unknown()).optional(),
-});
+export const runDto = runDtoSchema;
 
 export function registerRunRoutes(api: ApiRouter, ctx: AppContext): void {
   const tag = 'Runs';

@@ -1,5 +1,5 @@
 import { Op, QueryTypes, type Sequelize } from 'sequelize';
-import { isFinalRunState, type RunState, type RunStatusEvent } from '@phaseloop/shared';
+import { isFinalRunState, type RunDto, type RunState, type RunStatusEvent } from '@phaseloop/shared';
 import { HttpError, notFound } from '../http/errors';
 import type { SessionUser } from '../auth/session-user';
 import type { AppContext } from '../context';
@@ -16,33 +16,7 @@ import { deleteStoredResults } from './results.service';
 import { Run, type RunReviewStatus, type RunSnapshot } from './runs.model';
 import { notifyUsers } from '../notifications/notifications.service';
 
-export interface RunDto {
-  id: string;
-  projectId: string;
-  studyId: string;
-  sweepId: string | null;
-  number: number;
-  state: RunState;
-  message: string;
-  solverVersion: string;
-  progress: Record<string, unknown>;
-  queuePosition: number | null;
-  submittedBy: string | null;
-  createdAt: string;
-  queuedAt: string | null;
-  startedAt: string | null;
-  finishedAt: string | null;
-  cancelRequested: boolean;
-  cancelledBy: string | null;
-  attempts: number;
-  priority: number;
-  reviewStatus: RunReviewStatus;
-  reviewReason: string;
-  /** Who approved or rejected the run, and when (null until decided). */
-  reviewedBy: string | null;
-  reviewedAt: string | null;
-  snapshot?: Record<string, unknown>;
-}
+export type { RunDto } from '@phaseloop/shared';
 
 const iso = (d: Date | null | undefined): string | null => (d ? d.toISOString() : null);
 

@@ -78,14 +78,11 @@ export function listRunLogs(id: Id, afterSeq = -1): Promise<RunLogRecord[]> {
   return http.get<RunLogRecord[]>(`/api/runs/${seg(id)}/logs?afterSeq=${afterSeq}&limit=${RUN_LOG_PAGE}`);
 }
 
-export type RunReviewStatus = 'none' | 'requested' | 'approved' | 'rejected';
+export type { RunReviewStatus } from '@phaseloop/shared';
 export type RunReviewDecision = 'approve' | 'reject';
 
-/** The review fields every run answer carries (the shared RunDetail type leaves them loose). */
-export interface RunReviewFields {
-  reviewStatus: RunReviewStatus;
-  reviewReason: string;
-}
+/** The review fields every run answer carries. */
+export type RunReviewFields = Pick<RunDetail, 'reviewStatus' | 'reviewReason'>;
 
 /** Analysts and admins ask for a review of a run that succeeded. */
 export function requestRunReview(id: Id): Promise<RunDetail & RunReviewFields> {

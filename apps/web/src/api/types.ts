@@ -3,6 +3,8 @@
  * Kept in one file so that switching to the zod schemas of packages/shared touches one place.
  */
 
+import type { RunDto } from '@phaseloop/shared';
+
 export const PROJECT_ROLES = ['admin', 'analyst', 'reviewer', 'viewer'] as const;
 export type ProjectRole = (typeof PROJECT_ROLES)[number];
 
@@ -168,23 +170,4 @@ export interface ItemList<T> {
 }
 
 /** A run with its progress, as GET /api/runs/:id answers (snapshot only on that route). */
-export interface RunDetail {
-  id: string;
-  projectId: string;
-  studyId: string;
-  number: number;
-  state: RunState;
-  message: string;
-  solverVersion: string;
-  progress: Record<string, unknown>;
-  queuePosition: number | null;
-  submittedBy: string | null;
-  createdAt: IsoDateTime;
-  queuedAt: IsoDateTime | null;
-  startedAt: IsoDateTime | null;
-  finishedAt: IsoDateTime | null;
-  cancelRequested: boolean;
-  attempts: number;
-  reviewStatus: string;
-  snapshot?: Record<string, unknown>;
-}
+export type RunDetail = RunDto;
