@@ -4,10 +4,8 @@
  * forms derived from it).
  */
 import { describe, expect, it } from 'vitest';
-import { materialParamsSchema, parseModel, type ModelInput } from '@phaseloop/shared';
-import { buildProblem } from '../assembly/problem';
+import { materialParamsSchema, type ModelInput } from '@phaseloop/shared';
 import { rectangle } from '../mesh/structured';
-import { runAnalysis } from '../solve/nonlinear/driver';
 import { runMaterialPoint } from './materialPoint';
 import { assertCheck, extrapolateTo, legRows } from './materialPointTesting';
 import { ReducedMaterial } from './reduce';
@@ -15,6 +13,7 @@ import { driveReduced, tangentErrorReduced, tangentErrorSolid } from './reduceTe
 import { createSouzaAuricchio, SOUZA_STATE_SIZE, type SouzaAuricchioInput } from './souzaAuricchio';
 import { LodeGauge, lodeShape } from './souzaAuricchioLode';
 import { createMaterialPointOutput } from './types';
+import { solveRecording } from './structureTesting';
 
 const SUITE = 'SMA: Souza–Auricchio, tension–compression asymmetry';
 const SOURCE = 'closed form: Souza 1998 / Auricchio–Petrini 2004 uniaxial reduction with the Bigoni–Piccolroaz 2004 Lode-angle gauge on eᵗʳ';
@@ -261,17 +260,8 @@ describe('Souza–Auricchio with asymmetry in a structure', () => {
       output: { fields: ['displacement', 'reaction'], points: [{ name: 'tip', x: L, y: 0 }], reactionSums: [{ name: 'left', set: 'left' }] },
       solver: { forceTolerance: 1e-10, displacementTolerance: 1e-10, lineSearch: true },
     };
-    const parsed = parseModel(input);
-    if (!parsed.ok) throw new Error(JSON.stringify(parsed.issues));
-    const sequences: number[][] = [];
     // without the predictor the first iterate strains only the driven column: real Newton work
-    const result = runAnalysis(buildProblem(parsed.model), {
-      predictor: false,
-      onIteration: (i) => {
-        if (i.iteration === 0) sequences.push([]);
-        sequences[sequences.length - 1].push(i.residualNorm);
-      },
-    });
+    const { result, sequences } = solveRecording(input, { predictor: false });
     expect(result.status, result.failure?.message).toBe('succeeded');
     const mp = runMaterialPoint(createSouzaAuricchio(P), {
       control: 'strain',

@@ -14,14 +14,13 @@
  *    converging increments are quadratic in either case.
  */
 import { describe, expect, it } from 'vitest';
-import { parseModel, type ModelInput } from '@phaseloop/shared';
-import { buildProblem } from '../assembly/problem';
+import type { ModelInput } from '@phaseloop/shared';
 import { rectangle } from '../mesh/structured';
-import { runAnalysis } from '../solve/nonlinear/driver';
 import { assertCheck } from './materialPointTesting';
 import { ReducedMaterial, createReducedOutput } from './reduce';
 import { driveReduced, tangentErrorReduced } from './reduceTesting';
 import { createSouzaAuricchio, type SouzaAuricchioInput } from './souzaAuricchio';
+import { solveRecording } from './structureTesting';
 
 const SUITE = 'SMA: Souza–Auricchio';
 const S1: SouzaAuricchioInput = { E: 52000, nu: 0.33, alpha: 0, T_ref: 20, h: 1000, beta: 6.2, T0: -10, R: 60, eps_L: 0.05 };
@@ -104,16 +103,7 @@ function strip(lineSearch: boolean) {
     output: { fields: ['displacement', 'reaction'], points: [], reactionSums: [{ name: 'left', set: 'left' }] },
     solver: { forceTolerance: 1e-10, displacementTolerance: 1e-10, lineSearch },
   };
-  const parsed = parseModel(input);
-  if (!parsed.ok) throw new Error(JSON.stringify(parsed.issues));
-  const sequences: number[][] = [];
-  const result = runAnalysis(buildProblem(parsed.model), {
-    predictor: false,
-    onIteration: (i) => {
-      if (i.iteration === 0) sequences.push([]);
-      sequences[sequences.length - 1].push(i.residualNorm);
-    },
-  });
+  const { result, sequences } = solveRecording(input, { predictor: false });
   expect(result.status, result.failure?.message).toBe('succeeded');
   // order estimate log(r_{k+1}/r_k)/log(r_k/r_{k−1}) inside the basin and above round-off
   const orders: number[] = [];
