@@ -58,7 +58,7 @@ describe('fe-core solver output files', () => {
       expect(f.nodal.displacement).toEqual(frame.nodal.displacement!.flat());
       expect(f.nodal.vonMises).toEqual(frame.nodal.vonMises!.flat());
     });
-    // Tip displacement of the last frame: F L / (E A) = 100 · 20 / (200 000 · 0.5).
+    // Closed form (axial bar): tip displacement of the last frame F L / (E A) = 100 · 20 / (200 000 · 0.5).
     const last = parse<ResultFrameFile>(files.get(mesh.frames[2]!.file));
     expect(last.nodal.displacement![3 * 4]).toBeCloseTo(0.02, 10);
   }, 60_000);

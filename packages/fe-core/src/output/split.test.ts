@@ -86,7 +86,7 @@ describe('split result files', () => {
     const last = doc.frames.length - 1;
     const sxx = doc.frames[last].nodal.stress.map((r) => r?.[0] ?? Number.NaN);
     expect(mesh.frames[last].ranges.stress[0]).toEqual([Math.min(...sxx), Math.max(...sxx)]);
-    // Uniform tension σx = 6 MPa (traction over the right edge): every nodal σx is 6.
+    // Closed form: uniform tension σx = 6 MPa (traction over the right edge), so every nodal σx is 6.
     expect(mesh.frames[last].ranges.stress[0][0]).toBeCloseTo(6, 8);
     const mags = doc.frames[last].nodal.displacement.map((r) => Math.hypot(r?.[0] ?? 0, r?.[1] ?? 0));
     expect(mesh.frames[last].displacementMagnitude).toEqual([Math.min(...mags), Math.max(...mags)]);
@@ -115,7 +115,7 @@ describe('split result files', () => {
     expect(vm[0]!).toBeGreaterThan(0.5 * (1 * 20 * 1) / I);
     // The legend range of the frame covers the beam values.
     expect(mesh.frames[frames.length - 1].ranges.vonMises).toEqual([[Math.min(...(vm as number[])), Math.max(...(vm as number[]))]]);
-    // Tip deflection of a cantilever, P L³ / (3 E I), with I = π (D⁴ − d⁴) / 64.
+    // Closed form (Euler–Bernoulli cantilever, e.g. Timoshenko & Gere): tip deflection P L³ / (3 E I), I = π (D⁴ − d⁴) / 64.
     const tip = last.nodal.displacement[3 * (doc.nodes.length - 1) + 1];
     expect(tip).toBeCloseTo(-(1 * 20 ** 3) / (3 * 50_000 * I), 3);
   });
